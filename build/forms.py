@@ -1,0 +1,164 @@
+"""A calculator's form and empty result panel, rendered at build time from its `describe` spec.
+
+The page is readable and the form usable before any Python runs in the browser. Every text that
+reaches the HTML goes through `html.escape`.
+"""
+
+from html import escape
+
+from calc import api, units
+
+
+def _attr(value):
+    return escape(str(value), quote=True)
+
+
+def _default_text(item, value):
+    """The text a field starts with: a number in the declared unit is shown without the unit."""
+    if value is None:
+        return ""
+    if isinstance(value, bool):
+        return "yes" if value else "no"
+    if isinstance(value, (int, float)):
+        return f"{value:g}"
+    return str(value)
+
+
+def _field_ids(prefix, name):
+    return f"{prefix}-{name}", f"{prefix}-{name}-help", f"{prefix}-{name}-msg"
+
+
+def _quantity_control(item, field_id, described, value, datalist_id):
+    unit_hint = ", ".join(units.units_for(units.dimension_of(item.unit)))
+    listed = f' list="{_attr(datalist_id)}"' if item.suggest == "voltages" and datalist_id else ""
+    placeholder = "blank = not given" if item.optional else ""
+    return (
+        f'<input id="{field_id}" name="{_attr(item.name)}" type="text" inputmode="decimal" '
+        f'enterkeyhint="done" autocomplete="off" autocapitalize="off" spellcheck="false" '
+        f'value="{_attr(value)}" data-unit="{_attr(item.unit)}" aria-describedby="{described}"'
+        f'{listed} placeholder="{_attr(placeholder)}" title="{_attr("Units: " + unit_hint)}">'
+    )
+
+
+def _options(pairs, selected):
+    return "".join(
+        f'<option value="{_attr(token)}"{" selected" if token == selected else ""}>'
+        f"{escape(label)}</option>"
+        for token, label in pairs
+    )
+
+
+def _select_control(item, field_id, described, value):
+    if item.kind == "choice":
+        body = _options(item.choices, value)
+    elif item.kind == "flag":
+        body = _options((("yes", "Yes"), ("no", "No")), value)
+    else:  # size: grouped by system
+        selected = value
+        try:
+            selected = units.parse_conductor_size(value).label if value else ""
+        except units.UnitError:
+            pass
+        groups = (("AWG", units.AWG_SIZES), ("kcmil", units.KCMIL_SIZES), ("mm²", units.METRIC_SIZES))
+        body = "".join(
+            f'<optgroup label="{_attr(name)}">{_options(((s, s) for s in sizes), selected)}</optgroup>'
+            for name, sizes in groups
+        )
+    return (
+        f'<select id="{field_id}" name="{_attr(item.name)}" aria-describedby="{described}">'
+        f"{body}</select>"
+    )
+
+
+def _field(item, prefix, value, datalist_id):
+    field_id, help_id, msg_id = _field_ids(prefix, item.name)
+    described = f"{help_id} {msg_id}"
+    unit = f' <span class="fb-field__unit">{escape(item.unit)}</span>' if item.unit else ""
+    if item.kind == "quantity":
+        control = _quantity_control(item, field_id, described, value, datalist_id)
+    else:
+        control = _select_control(item, field_id, described, value)
+    help_text = escape(item.help) if item.help else ""
+    return (
+        f'<div class="fb-field" data-field="{_attr(item.name)}">'
+        f'<label for="{field_id}">{escape(item.label)}{unit}</label>{control}'
+        f'<p class="fb-field__help" id="{help_id}">{help_text}</p>'
+        f'<p class="fb-field__msg" id="{msg_id}" role="alert" hidden></p></div>'
+    )
+
+
+def _output(item):
+    unit = "" if not item.unit else item.unit
+    return (
+        f'<div class="fb-out"><dt class="fb-out__label">{escape(item.label)}</dt>'
+        f'<dd class="fb-out__value" data-output="{_attr(item.name)}" data-unit="{_attr(unit)}">'
+        "—</dd></div>"
+    )
+
+
+def _section(kind, title, open_=False):
+    return (
+        f'<details class="fb-section fb-section--{kind}"{" open" if open_ else ""}>'
+        f'<summary>{escape(title)}</summary><{"ol" if kind == "steps" else "ul"} '
+        f'class="fb-{kind}"></{"ol" if kind == "steps" else "ul"}></details>'
+    )
+
+
+def render_calculator(calculator_id, config, preset=None, index=0):
+    """HTML of one calculator: engine status, form, actions and an empty result panel.
+
+    Parameters
+    ----------
+    calculator_id : str
+        A registered id.
+    config : build.team.TeamConfig
+        Supplies the region's and the team's defaults and the usual voltages.
+    preset : dict, optional
+        Raw values for some inputs (from an embedding block); they win over every default.
+    index : int
+        The calculator's position on its page, so element ids stay unique.
+    """
+    calculator = api.get(calculator_id)
+    preset = preset or {}
+    prefix = f"fb{index}"
+    datalist_id = f"{prefix}-voltages"
+    fields = "".join(
+        _field(
+            item,
+            prefix,
+            _default_text(item, preset.get(item.name, config.input_default(calculator_id, item))),
+            datalist_id,
+        )
+        for item in calculator.inputs
+    )
+    datalist = (
+        f'<datalist id="{datalist_id}">'
+        + "".join(f'<option value="{_attr(units.format_quantity(v, "V"))}"></option>' for v in config.system_voltages)
+        + "</datalist>"
+    )
+    outputs = "".join(_output(item) for item in calculator.outputs)
+    return (
+        f'<section class="fb-calc" data-calculator="{_attr(calculator_id)}" data-state="starting" '
+        f'data-engine="starting" data-index="{index}" aria-label="{_attr(calculator.title)}">'
+        '<p class="fb-engine" role="status" aria-live="polite">'
+        '<span class="fb-engine__lamp" aria-hidden="true"></span>'
+        '<span class="fb-engine__text">Calculator engine starting…</span></p>'
+        '<noscript><p class="fb-engine">The live calculator needs JavaScript; the method and '
+        "sources on this page read without it.</p></noscript>"
+        f'<form class="fb-form" novalidate autocomplete="off">{fields}{datalist}</form>'
+        '<p class="fb-general-msg" role="alert" hidden></p>'
+        '<div class="fb-result" aria-live="polite">'
+        f'<dl class="fb-outputs">{outputs}</dl>'
+        '<ul class="fb-checks"></ul>'
+        '<figure class="fb-chart" hidden><figcaption></figcaption><div class="fb-chart__plot"></div></figure>'
+        + _section("steps", "Method", open_=True)
+        + _section("assumptions", "Assumptions")
+        + _section("sources", "Sources")
+        + _section("cautions", "Cautions", open_=True)
+        + '<p class="fb-record"></p></div>'
+        '<div class="fb-actions">'
+        '<button type="button" class="fb-button" data-action="copy-link">Copy link to this calculation</button>'
+        '<button type="button" class="fb-button" data-action="print">Print or save as PDF</button>'
+        '<span class="fb-actions__note" role="status" aria-live="polite"></span></div>'
+        "</section>"
+    )

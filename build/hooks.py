@@ -1,0 +1,102 @@
+"""MkDocs hooks: thin calls into the tested build modules (see DEVELOPERS.md, "The build")."""
+
+import json
+import sys
+from pathlib import Path
+
+ROOT = Path(__file__).resolve().parent.parent
+if str(ROOT) not in sys.path:  # MkDocs loads this file by path; calc/ and build/ live beside it
+    sys.path.insert(0, str(ROOT))
+
+from mkdocs.exceptions import PluginError  # noqa: E402
+from mkdocs.structure.files import File  # noqa: E402
+
+from build import embed, forms, package_calc, paths, release_files, service_worker, team  # noqa: E402
+from calc import __version__, api  # noqa: E402
+
+CALCULATOR_LIST_MARKER = "<!-- fluxbook:calculator-list -->"
+
+_state = {"config": None, "blocks": {}}
+
+
+def on_config(config):
+    try:
+        settings = team.load()
+    except team.TeamConfigError as error:
+        raise PluginError(str(error)) from None
+    _check_pyodide_version()
+    _state["config"] = settings
+    config.extra["fluxbook"] = {
+        **settings.for_page(),
+        "version": __version__,
+        "pyodide_dir": paths.PYODIDE_SITE_DIR + "/",
+        "calc_zip": paths.CALC_ZIP_SITE_PATH,
+    }
+    if settings.organisation:
+        config.site_name = f"Fluxbook · {settings.organisation}"
+    return config
+
+
+def _check_pyodide_version():
+    package = paths.NODE_MODULES / "pyodide" / "package.json"
+    if not package.exists():
+        raise PluginError("node_modules/pyodide is missing: run `npm ci` first")
+    found = json.loads(package.read_text(encoding="utf-8"))["version"]
+    if found != paths.PYODIDE_VERSION:
+        raise PluginError(f"pyodide {found} is installed; the build expects {paths.PYODIDE_VERSION}")
+
+
+def on_files(files, config):
+    files.append(File.generated(config, paths.CALC_ZIP_SITE_PATH, content=package_calc.calc_zip_bytes()))
+    for name in paths.PYODIDE_FILES:
+        source = paths.NODE_MODULES / "pyodide" / name
+        files.append(File.generated(config, f"{paths.PYODIDE_SITE_DIR}/{name}", abs_src_path=str(source)))
+    for source, destination in paths.VENDOR_FILES.items():
+        files.append(File.generated(config, destination, abs_src_path=str(paths.NODE_MODULES / source)))
+    return files
+
+
+def on_page_markdown(markdown, page, config, files):
+    if CALCULATOR_LIST_MARKER in markdown:
+        markdown = markdown.replace(CALCULATOR_LIST_MARKER, _calculator_list(page))
+    try:
+        markdown, blocks = embed.replace_blocks(markdown, page.file.src_uri)
+    except embed.EmbedError as error:
+        raise PluginError(str(error)) from None
+    _state["blocks"][page.file.src_uri] = blocks
+    return markdown
+
+
+def _calculator_list(page):
+    depth = page.file.src_uri.count("/")
+    prefix = "../" * depth
+    lines = []
+    for entry in api.list_calculators():
+        lines.append(f"- [{entry['title']}]({prefix}calculators/{entry['id']}.md) — {entry['summary']}")
+    return "\n".join(lines)
+
+
+def on_page_content(html, page, config, files):
+    blocks = _state["blocks"].get(page.file.src_uri, [])
+    if not blocks:
+        return html
+    settings = _state["config"]
+    return embed.fill_slots(
+        html,
+        lambda n: forms.render_calculator(blocks[n][0], settings, preset=blocks[n][1], index=n),
+    )
+
+
+def on_post_build(config):
+    site_dir = Path(config.site_dir)
+    release_files.write_server_headers(site_dir)
+    try:
+        precache = service_worker.generate(site_dir)  # last: every other file is written
+    except service_worker.ServiceWorkerError as error:
+        raise PluginError(str(error)) from None
+    shipped = release_files.write_checksums(site_dir)
+    print(
+        f"fluxbook: precached {precache['count']} files, {precache['size'] / 1e6:.1f} MB; "
+        f"{shipped} files listed in {paths.CHECKSUMS_FILE}",
+        file=sys.stderr,
+    )

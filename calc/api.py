@@ -1,0 +1,276 @@
+"""The one calculator registry and the contract around it: list, describe, run and run_json.
+
+Everything the page, the command line, share links and scripts do goes through here, so input
+checking, output formatting and the guarantee of finite numbers live in one place.
+"""
+
+import json
+import math
+
+from calc import __version__, transformers, units
+from calc.errors import CalcError, InputError, InputErrors, UnitError
+
+# The registry: every calculator Fluxbook ships, in the order the site lists them.
+_CALCULATORS = (transformers.CURRENTS,)
+
+REGISTRY = {calculator.id: calculator for calculator in _CALCULATORS}
+
+_TRUE = ("yes", "true", "on", "1")
+_FALSE = ("no", "false", "off", "0")
+
+
+def list_calculators():
+    """[{"id", "title", "summary", "group"}] for every registered calculator."""
+    return [
+        {"id": c.id, "title": c.title, "summary": c.summary, "group": c.group}
+        for c in REGISTRY.values()
+    ]
+
+
+def get(calculator_id):
+    """The registered Calculator for `calculator_id`, or InputError naming the valid ids."""
+    try:
+        return REGISTRY[calculator_id]
+    except (KeyError, TypeError):
+        known = ", ".join(sorted(REGISTRY))
+        raise InputError(
+            None, calculator_id, f"unknown calculator {calculator_id!r}; known: {known}"
+        ) from None
+
+
+def describe(calculator_id):
+    """The calculator's spec as the form builder and the CLI's `describe` use it."""
+    calculator = get(calculator_id)
+    return {
+        "id": calculator.id,
+        "title": calculator.title,
+        "summary": calculator.summary,
+        "group": calculator.group,
+        "inputs": [_describe_input(item) for item in calculator.inputs],
+        "outputs": [
+            {"name": o.name, "label": o.label, "unit": o.unit} for o in calculator.outputs
+        ],
+    }
+
+
+def _describe_input(item):
+    entry = {
+        "name": item.name,
+        "label": item.label,
+        "kind": item.kind,
+        "unit": item.unit,
+        "default": item.default,
+        "help": item.help,
+        "optional": item.optional,
+    }
+    if item.kind == "quantity":
+        entry["units"] = units.units_for(units.dimension_of(item.unit))
+        entry["min"] = item.minimum
+        entry["max"] = item.maximum
+        entry["min_exclusive"] = item.min_exclusive
+        entry["max_exclusive"] = item.max_exclusive
+    if item.kind == "choice":
+        entry["choices"] = [{"value": token, "label": label} for token, label in item.choices]
+    if item.kind == "size":
+        entry["choices"] = [
+            {"value": label, "label": label}
+            for label in units.AWG_SIZES + units.KCMIL_SIZES + units.METRIC_SIZES
+        ]
+    if item.region_defaults:
+        entry["region_defaults"] = dict(item.region_defaults)
+    if item.suggest:
+        entry["suggest"] = item.suggest
+    return entry
+
+
+def validate(calculator, inputs):
+    """Check and convert raw inputs (numbers or text) into the values `compute` receives.
+
+    Raises InputErrors listing every wrong field, including names the calculator does not have.
+    """
+    if not isinstance(inputs, dict):
+        raise InputErrors([InputError(None, inputs, "inputs must be an object of name: value")])
+    errors = []
+    names = {item.name for item in calculator.inputs}
+    for name in inputs:
+        if name not in names:
+            allowed = ", ".join(item.name for item in calculator.inputs)
+            errors.append(
+                InputError(name, inputs[name], f"unknown input {name!r}; inputs are: {allowed}")
+            )
+    values = {}
+    for item in calculator.inputs:
+        raw = inputs.get(item.name, item.default)
+        try:
+            values[item.name] = _convert(item, raw)
+        except InputError as error:
+            errors.append(error)
+    if errors:
+        raise InputErrors(errors)
+    return values
+
+
+def _is_blank(raw):
+    return raw is None or (isinstance(raw, str) and not raw.strip())
+
+
+def _convert(item, raw):
+    if _is_blank(raw):
+        if item.optional:
+            return None
+        raise InputError(item.name, raw, f"{item.label} is required; {_allowed(item)}")
+    try:
+        if item.kind == "quantity":
+            value = units.to_si(raw, item.unit)
+            _check_limits(item, raw, value)
+            return value
+        if item.kind == "size":
+            return units.parse_conductor_size(raw)
+    except UnitError as error:
+        raise InputError(item.name, raw, f"{error}") from None
+    if item.kind == "choice":
+        token = str(raw).strip() if not isinstance(raw, bool) else None
+        if isinstance(raw, float) and raw.is_integer():
+            token = str(int(raw))
+        if token not in item.tokens:
+            raise InputError(item.name, raw, f"{raw!r} is not a choice; {_allowed(item)}")
+        return token
+    # flag
+    if isinstance(raw, bool):
+        return raw
+    text = str(raw).strip().lower()
+    if text in _TRUE:
+        return True
+    if text in _FALSE:
+        return False
+    raise InputError(item.name, raw, f"{raw!r} is not yes or no; {_allowed(item)}")
+
+
+def _check_limits(item, raw, value):
+    low = None if item.minimum is None else units.to_si(item.minimum, item.unit)
+    high = None if item.maximum is None else units.to_si(item.maximum, item.unit)
+    too_low = low is not None and (value <= low if item.min_exclusive else value < low)
+    too_high = high is not None and (value >= high if item.max_exclusive else value > high)
+    if too_low or too_high:
+        shown = units.format_quantity(value, item.unit)
+        raise InputError(item.name, raw, f"{shown} is out of range; {_allowed(item)}")
+
+
+def _allowed(item):
+    """The sentence that says what a field accepts."""
+    if item.kind == "choice":
+        return "choose one of: " + ", ".join(f"{t} ({label})" for t, label in item.choices)
+    if item.kind == "size":
+        return "enter a conductor size such as 12 AWG, 4/0, 250 kcmil or 2.5 mm2"
+    if item.kind == "flag":
+        return "enter yes or no"
+    unit_list = ", ".join(units.units_for(units.dimension_of(item.unit)))
+    parts = []
+    if item.minimum is not None:
+        parts.append(("greater than " if item.min_exclusive else "at least ") + _limit(item, "minimum"))
+    if item.maximum is not None:
+        parts.append(("less than " if item.max_exclusive else "at most ") + _limit(item, "maximum"))
+    span = " and ".join(parts)
+    return f"enter a value {span} ({unit_list})" if span else f"enter a value ({unit_list})"
+
+
+def _limit(item, which):
+    number = getattr(item, which)
+    return f"{number:g} {item.unit}".strip()
+
+
+def run(calculator_id, inputs):
+    """Run a calculator on raw inputs and return the contract's result or error dict.
+
+    Never raises for bad input: errors come back as {"ok": false, "errors": [...]} with the
+    field, the value received and what is allowed.
+    """
+    try:
+        calculator = get(calculator_id)
+    except InputError as error:
+        return _error_result(calculator_id, [error])
+    try:
+        values = validate(calculator, inputs)
+        result = calculator.compute(values)
+        return _result_dict(calculator, result)
+    except InputErrors as errors:
+        return _error_result(calculator.id, errors.errors)
+    except InputError as error:
+        return _error_result(calculator.id, [error])
+    except CalcError as error:
+        return _error_result(calculator.id, [InputError(None, None, str(error))])
+    except Exception as error:  # a bug: say so plainly, never show a traceback to the user
+        message = (
+            f"internal error in {calculator.id} ({type(error).__name__}); the inputs look valid, "
+            "so please report this calculation with its link"
+        )
+        return _error_result(calculator.id, [InputError(None, None, message)])
+
+
+def run_json(calculator_id, inputs_json):
+    """JSON text in, JSON text out: the worker's single entry point. User text is only data."""
+    try:
+        inputs = json.loads(inputs_json)
+    except (TypeError, ValueError) as error:
+        payload = _error_result(
+            calculator_id, [InputError(None, None, f"inputs are not valid JSON ({error})")]
+        )
+    else:
+        payload = run(calculator_id, inputs)
+    return dumps(payload)
+
+
+def dumps(payload, indent=None):
+    """The contract's JSON text: NaN and infinity are refused, keys in a stable order."""
+    return json.dumps(payload, allow_nan=False, ensure_ascii=False, indent=indent)
+
+
+def _error_result(calculator_id, errors):
+    return {
+        "ok": False,
+        "calculator": calculator_id if isinstance(calculator_id, str) else str(calculator_id),
+        "errors": [error.as_dict() for error in errors],
+    }
+
+
+def _result_dict(calculator, result):
+    outputs = {}
+    for spec in calculator.outputs:
+        if spec.name not in result.outputs:
+            continue  # an output that does not apply to these inputs (documented per calculator)
+        value, display = result.outputs[spec.name]
+        if isinstance(value, float) and not math.isfinite(value):
+            raise CalcError(f"{spec.label} could not be computed for these inputs")
+        if display is None:
+            display = units.format_quantity(value, spec.unit)
+        outputs[spec.name] = {
+            "value": value,
+            "unit": spec.unit,
+            "label": spec.label,
+            "display": display,
+        }
+    payload = {
+        "ok": True,
+        "calculator": calculator.id,
+        "version": __version__,
+        "outputs": outputs,
+        "checks": result.checks,
+        "steps": result.steps,
+        "assumptions": result.assumptions,
+        "sources": result.sources,
+        "cautions": result.cautions,
+    }
+    if result.series is not None:
+        payload["series"] = result.series
+    _require_finite(payload["series"] if "series" in payload else None)
+    return payload
+
+
+def _require_finite(series):
+    """A chart with a NaN or infinity is refused rather than drawn wrong."""
+    if series is None:
+        return
+    for line in [series["x"]] + list(series["y"]):
+        for number in line["values"]:
+            if not math.isfinite(number):
+                raise CalcError(f"the chart {line['label']!r} could not be computed for these inputs")

@@ -1,0 +1,95 @@
+// Charts of a result's series with uPlot (the site's own copy). The series shape is
+// {title, x: {label, unit, values}, y: [{label, unit, values}], marks: [{axis, value, label}]}.
+import uPlot from "../vendor/uplot/uPlot.esm.js";
+
+const LINE_COLOURS = ["--fb-chart-1", "--fb-chart-2", "--fb-chart-3", "--fb-chart-4"];
+
+function cssVar(name) {
+  return getComputedStyle(document.documentElement).getPropertyValue(name).trim() || "#333";
+}
+
+function axisLabel(part) {
+  return part.unit ? `${part.label} (${part.unit})` : part.label;
+}
+
+// Vertical or horizontal reference lines (rated load, a limit) drawn over the plot.
+function marksPlugin(marks) {
+  return {
+    hooks: {
+      draw: [(u) => {
+        const ctx = u.ctx;
+        ctx.save();
+        ctx.strokeStyle = cssVar("--fb-chart-mark");
+        ctx.fillStyle = cssVar("--fb-chart-mark");
+        ctx.setLineDash([6, 4]);
+        ctx.lineWidth = 2 * devicePixelRatio;
+        ctx.font = `${12 * devicePixelRatio}px system-ui, sans-serif`;
+        for (const mark of marks) {
+          ctx.beginPath();
+          if (mark.axis === "x") {
+            const x = u.valToPos(mark.value, "x", true);
+            ctx.moveTo(x, u.bbox.top);
+            ctx.lineTo(x, u.bbox.top + u.bbox.height);
+            ctx.stroke();
+            ctx.fillText(mark.label, x + 4 * devicePixelRatio, u.bbox.top + 14 * devicePixelRatio);
+          } else {
+            const y = u.valToPos(mark.value, "y", true);
+            ctx.moveTo(u.bbox.left, y);
+            ctx.lineTo(u.bbox.left + u.bbox.width, y);
+            ctx.stroke();
+            ctx.fillText(mark.label, u.bbox.left + 4 * devicePixelRatio, y - 4 * devicePixelRatio);
+          }
+        }
+        ctx.restore();
+      }],
+    },
+  };
+}
+
+export function clearChart(figure) {
+  if (figure.fbPlot) { figure.fbPlot.destroy(); figure.fbPlot = null; }
+  if (figure.fbResize) { figure.fbResize.disconnect(); figure.fbResize = null; }
+  figure.hidden = true;
+}
+
+export function drawChart(figure, series) {
+  clearChart(figure);
+  figure.hidden = false;
+  figure.querySelector("figcaption").textContent = series.title || "";
+  const holder = figure.querySelector(".fb-chart__plot");
+  holder.replaceChildren();
+  const axisColour = cssVar("--fb-ink");
+  const width = Math.max(holder.clientWidth || figure.clientWidth || 320, 280);
+  const options = {
+    width,
+    height: Math.round(Math.min(360, Math.max(220, width * 0.6))),
+    legend: { show: true },
+    cursor: { drag: { x: false, y: false } },
+    scales: { x: { time: false } },
+    axes: [
+      { label: axisLabel(series.x), stroke: axisColour, grid: { stroke: cssVar("--fb-grid") } },
+      { label: series.y.length ? axisLabel(series.y[0]) : "", stroke: axisColour,
+        grid: { stroke: cssVar("--fb-grid") }, size: 60 },
+    ],
+    series: [
+      { label: axisLabel(series.x) },
+      ...series.y.map((line, i) => ({
+        label: line.label,
+        stroke: cssVar(LINE_COLOURS[i % LINE_COLOURS.length]),
+        width: 3,
+        dash: i % 2 ? [10, 5] : undefined, // told apart without colour too
+        points: { show: false },
+      })),
+    ],
+    plugins: [marksPlugin(series.marks || [])],
+  };
+  const data = [series.x.values, ...series.y.map((line) => line.values)];
+  figure.fbPlot = new uPlot(options, data, holder);
+  figure.fbResize = new ResizeObserver(() => {
+    const w = Math.max(holder.clientWidth, 280);
+    if (figure.fbPlot && Math.abs(figure.fbPlot.width - w) > 8) {
+      figure.fbPlot.setSize({ width: w, height: Math.round(Math.min(360, Math.max(220, w * 0.6))) });
+    }
+  });
+  figure.fbResize.observe(holder);
+}

@@ -1,0 +1,127 @@
+// Page entry: wires every calculator on the page to the shared engine. Material's instant
+// navigation swaps pages without reloading, so set-up runs from document$ on every page.
+import { engine, STAGES } from "./engine.js";
+import * as forms from "./forms.js";
+import { renderResult, clearResult } from "./results.js";
+import { startOffline, onOffline } from "./pwa.js";
+
+const DEBOUNCE_MS = 250;
+const OFFLINE_WORDS = {
+  checking: "",
+  stored: " · stored for offline use",
+  unsupported: " · this browser cannot keep it offline",
+};
+
+function setState(root, state) {
+  root.dataset.state = state;
+}
+
+function engineText(stage, detail) {
+  if (stage === "ready") return "Calculator engine ready";
+  if (stage === "failed") {
+    return `Calculator engine failed to start (${detail}). Reload the page; if it keeps failing, ` +
+      "open it once while online.";
+  }
+  return `Calculator engine starting: ${STAGES[stage] || stage}…`;
+}
+
+function showEngine(root, { stage, detail }) {
+  const status = root.querySelector(".fb-engine__text");
+  const engineState = stage === "ready" ? "ready" : stage === "failed" ? "failed" : "starting";
+  root.dataset.engine = engineState;
+  status.dataset.base = engineText(stage, detail);
+  status.textContent = status.dataset.base + (engineState === "ready" ? OFFLINE_WORDS[root.fbOffline] || "" : "");
+  if (engineState === "failed") setState(root, "error");
+}
+
+function updateLink(roots) {
+  const search = forms.shareSearch(roots);
+  if (search !== window.location.search) {
+    history.replaceState(history.state, "", window.location.pathname + search + window.location.hash);
+  }
+}
+
+async function compute(root, roots) {
+  const sequence = (root.fbSequence || 0) + 1;
+  root.fbSequence = sequence;
+  setState(root, "computing");
+  const inputs = forms.readInputs(root);
+  let result;
+  try {
+    result = await engine().run(root.dataset.calculator, inputs);
+  } catch (error) {
+    if (sequence !== root.fbSequence) return;
+    clearResult(root);
+    forms.showErrors(root, [{ field: null, message: `The calculation could not run: ${error.message || error}` }]);
+    setState(root, "error");
+    return;
+  }
+  if (sequence !== root.fbSequence) return; // a newer input change is on its way
+  if (result.ok) {
+    forms.clearMessages(root);
+    renderResult(root, result);
+    setState(root, "done");
+  } else {
+    clearResult(root);
+    forms.showErrors(root, result.errors);
+    setState(root, "error");
+  }
+  updateLink(roots);
+}
+
+function copyLink(root) {
+  const note = root.querySelector(".fb-actions__note");
+  const url = window.location.href;
+  const fallback = () => {
+    // No clipboard (plain http on an internal server): show the link to copy by hand.
+    const field = document.createElement("input");
+    field.className = "fb-link-field";
+    field.readOnly = true;
+    field.value = url;
+    note.replaceChildren(field);
+    field.select();
+  };
+  if (navigator.clipboard && window.isSecureContext) {
+    navigator.clipboard.writeText(url).then(() => { note.textContent = "Link copied."; }, fallback);
+  } else {
+    fallback();
+  }
+}
+
+function wire(root, roots) {
+  if (root.fbWired) return;
+  root.fbWired = true;
+  forms.applyParams(root, window.location.search);
+  let timer = null;
+  const schedule = () => {
+    clearTimeout(timer);
+    timer = setTimeout(() => compute(root, roots), DEBOUNCE_MS);
+  };
+  const form = root.querySelector(".fb-form");
+  form.addEventListener("input", schedule);
+  form.addEventListener("change", schedule);
+  form.addEventListener("submit", (event) => { event.preventDefault(); compute(root, roots); });
+  root.querySelector('[data-action="copy-link"]').addEventListener("click", () => copyLink(root));
+  root.querySelector('[data-action="print"]').addEventListener("click", () => window.print());
+  const running = engine();
+  const stop = running.onStage((state) => showEngine(root, state));
+  onOffline((state) => { root.fbOffline = state; showEngine(root, running.state); });
+  running.ready.then(() => {
+    stop();
+    showEngine(root, running.state);
+    if (root.dataset.state === "starting") setState(root, "ready");
+    compute(root, roots);
+  }, () => {});
+}
+
+function initPage() {
+  const roots = Array.from(document.querySelectorAll("[data-calculator]"));
+  for (const root of roots) wire(root, roots);
+}
+
+startOffline();
+if (window.document$ && typeof window.document$.subscribe === "function") {
+  window.document$.subscribe(initPage);
+} else {
+  initPage();
+}

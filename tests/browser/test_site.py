@@ -1,0 +1,200 @@
+"""The built site in Chromium: typing, results, share links, offline, origin, updates, hosting.
+
+The site runs under the Content-Security-Policy its build writes, so waits use Playwright's
+locator assertions (a string predicate would need 'unsafe-eval').
+"""
+
+import re
+from urllib.parse import urlsplit
+
+import pytest
+from playwright.sync_api import expect
+
+from tests.browser.conftest import output, wait_done
+from tests.conftest import build_site, serving
+
+PAGE = "calculators/transformer-currents/"
+
+
+@pytest.fixture(scope="module")
+def site(built_site):
+    with serving(built_site) as (base, _):
+        yield base
+
+
+def test_typing_inputs_gives_a_result(context, site):
+    page = context.new_page()
+    page.goto(site + PAGE)
+    wait_done(page)
+    assert output(page, "secondary_a") == "208 A"  # 75 kVA / (√3 × 208 V), computed
+    page.fill('[name="kva"]', "150 kVA")
+    expect(page.locator('[data-output="secondary_a"]')).to_have_text("416 A")
+    assert page.locator(".fb-steps li").count() >= 3
+    assert page.locator(".fb-cautions li").count() >= 3
+    assert page.locator(".fb-sources li").count() >= 1
+    assert page.locator('.fb-check[data-check="rating"][data-status="pass"]').count() == 1
+    assert page.locator(".fb-chart canvas").count() >= 1  # the series is drawn
+
+
+def test_engine_state_is_visible(context, site):
+    page = context.new_page()
+    page.goto(site + PAGE)
+    root = page.locator("[data-calculator]")
+    assert root.get_attribute("data-state") in ("starting", "ready", "computing", "done")
+    wait_done(page)
+    assert root.get_attribute("data-engine") == "ready"
+    assert "ready" in page.text_content(".fb-engine__text")
+
+
+def test_share_link_restores_inputs_and_computes(context, site):
+    page = context.new_page()
+    page.goto(site + PAGE + "?kva=300&phases=1&primary_v=7.2%20kV&secondary_v=240")
+    wait_done(page)
+    assert page.input_value('[name="kva"]') == "300"
+    assert page.input_value('[name="phases"]') == "1"
+    assert output(page, "secondary_a") == "1.25 kA"  # 300 kVA / 240 V = 1250 A, computed
+    page.fill('[name="kva"]', "25")
+    page.wait_for_url("**kva=25**")
+    reopened = context.new_page()
+    reopened.goto(page.url)
+    wait_done(reopened)
+    assert output(reopened, "secondary_a") == "104 A"  # 25 kVA / 240 V, computed
+
+
+def test_link_values_are_data_not_markup(context, site):
+    page = context.new_page()
+    hostile = "%3Cimg%20src%3Dx%20onerror%3D%22window.__owned%3D1%22%3E"
+    page.goto(site + PAGE + "?kva=" + hostile)
+    page.wait_for_selector('[data-calculator][data-state="error"]')
+    assert page.evaluate("window.__owned") is None
+    assert page.locator(".fb-calc img").count() == 0
+    message = page.text_content('.fb-field[data-field="kva"] .fb-field__msg')
+    assert "<img" in message  # shown back as text
+
+
+def test_bad_input_shows_a_field_message(context, site):
+    page = context.new_page()
+    page.goto(site + PAGE)
+    wait_done(page)
+    page.fill('[name="primary_v"]', "75 kVA")
+    page.wait_for_selector('[data-calculator][data-state="error"]')
+    message = page.locator('.fb-field[data-field="primary_v"] .fb-field__msg')
+    assert message.is_visible()
+    assert "voltage" in message.text_content()
+    assert page.get_attribute('[name="primary_v"]', "aria-invalid") == "true"
+    assert output(page, "secondary_a") == "—"  # no stale number beside a wrong input
+    assert "Traceback" not in page.content()
+    page.fill('[name="primary_v"]', "480 V")
+    wait_done(page)
+    assert not message.is_visible()
+
+
+def test_no_request_leaves_the_origin(context, site):
+    seen = []
+    context.on("request", lambda request: seen.append(request.url))
+    page = context.new_page()
+    page.goto(site)
+    page.click('article a[href*="transformer-currents"]')  # instant navigation
+    wait_done(page)
+    page.fill('[name="kva"]', "45")
+    expect(page.locator('[data-output="secondary_a"]')).to_have_text("125 A")
+    origin = "{0.scheme}://{0.netloc}/".format(urlsplit(site))
+    outside = [url for url in seen if not url.startswith((origin, "data:", "blob:"))]
+    assert seen and not outside
+
+
+def test_works_offline_after_one_visit(browser, built_site):
+    context = browser.new_context(viewport={"width": 360, "height": 780})
+    context.set_default_timeout(60000)
+    try:
+        with serving(built_site) as (base, _):
+            page = context.new_page()
+            page.goto(base + PAGE)
+            wait_done(page)
+            page.wait_for_selector('html[data-offline="stored"]')
+        # The server is gone: everything must now come from the service worker.
+        context.set_offline(True)
+        response = page.reload()
+        assert response.from_service_worker
+        wait_done(page)
+        page.fill('[name="kva"]', "112.5")
+        expect(page.locator('[data-output="secondary_a"]')).to_have_text("312 A")
+    finally:
+        context.close()
+
+
+def test_update_prompt_appears_and_reloads_on_request(browser, tmp_path):
+    old, new = tmp_path / "old", tmp_path / "new"
+    assert build_site(old).returncode == 0
+    team = tmp_path / "team.yml"
+    team.write_text("organisation: Pump House Crew\n", encoding="utf-8")
+    assert build_site(new, team_file=team).returncode == 0
+    current = tmp_path / "current"
+    current.symlink_to(old, target_is_directory=True)
+    context = browser.new_context()
+    context.set_default_timeout(60000)
+    try:
+        with serving(current) as (base, _):
+            page = context.new_page()
+            page.goto(base + PAGE)
+            wait_done(page)
+            page.wait_for_selector('html[data-offline="stored"]')
+            current.unlink()
+            current.symlink_to(new, target_is_directory=True)  # the team publishes a new build
+            page.reload()  # still the old version, from the cache; the browser finds the new one
+            page.wait_for_selector(".fb-update")
+            assert "Pump House Crew" not in page.title()  # nothing swapped without asking
+            page.click('[data-action="update-now"]')
+            expect(page).to_have_title(re.compile("Pump House Crew"))
+            wait_done(page)
+    finally:
+        context.close()
+
+
+def test_hosted_under_a_sub_path(browser, built_site):
+    context = browser.new_context()
+    context.set_default_timeout(60000)
+    try:
+        with serving(built_site, prefix="/tools/fluxbook/") as (base, _):
+            assert base.endswith("/tools/fluxbook/")
+            page = context.new_page()
+            page.goto(base + PAGE + "?kva=500&primary_v=4160&secondary_v=480")
+            wait_done(page)
+            assert output(page, "secondary_a") == "601 A"  # 500 kVA / (√3 × 480 V), computed
+            scope = page.evaluate("navigator.serviceWorker.ready.then(r => r.scope)")
+            assert scope == base
+    finally:
+        context.close()
+
+
+def test_engine_failure_is_shown(context, site):
+    context.route("**/calc.zip", lambda route: route.abort())
+    page = context.new_page()
+    page.goto(site + PAGE)
+    page.wait_for_selector('[data-calculator][data-engine="failed"]')
+    assert "failed" in page.text_content(".fb-engine__text")
+    assert page.get_attribute("[data-calculator]", "data-state") == "error"
+
+
+def test_phone_width_has_no_sideways_scroll(context, site):
+    page = context.new_page()
+    page.goto(site + PAGE)
+    wait_done(page)
+    assert page.evaluate("document.documentElement.scrollWidth") <= 360
+    height = page.evaluate("document.querySelector('[name=kva]').getBoundingClientRect().height")
+    assert height >= 44  # a gloved finger's target (WCAG 2.5.5 asks 44 CSS px)
+
+
+def test_dark_scheme_follows_the_device(browser, site):
+    context = browser.new_context(color_scheme="dark")
+    context.set_default_timeout(60000)
+    try:
+        page = context.new_page()
+        page.goto(site + PAGE)
+        wait_done(page)
+        assert page.get_attribute("body", "data-md-color-scheme") == "slate"
+        background = page.evaluate("getComputedStyle(document.body).backgroundColor")
+        red, green, blue = [int(x) for x in background[background.index("(") + 1:-1].split(",")[:3]]
+        assert red + green + blue < 150
+    finally:
+        context.close()

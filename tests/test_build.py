@@ -1,0 +1,223 @@
+"""The build pipeline: team settings, the embedding block, forms, the zip, the precache, the headers."""
+
+import json
+import re
+import zipfile
+from io import BytesIO
+
+import pytest
+
+from build import embed, forms, package_calc, paths, release_files, team
+from calc import api
+
+ROOT = paths.ROOT
+
+
+# ---- team settings ------------------------------------------------------------------------
+
+def test_missing_team_file_gives_north_american_defaults(tmp_path, monkeypatch):
+    monkeypatch.delenv(paths.TEAM_FILE_ENV, raising=False)
+    config = team.load(tmp_path / "absent.yml")
+    assert config.region == "na" and config.voltage_drop == {"branch_pct": 3.0, "total_pct": 5.0}
+
+
+def test_shipped_team_file_is_valid():
+    assert team.load(paths.TEAM_FILE).region in team.REGIONS
+
+
+def test_iec_region_changes_defaults_and_voltages():
+    config = team.parse({"region": "iec"})
+    item = api.get("transformer-currents").input("secondary_v")
+    assert config.input_default("transformer-currents", item) == 400
+    assert 230 in config.system_voltages and config.voltage_drop["other_pct"] == 5.0
+
+
+def test_team_defaults_beat_region_defaults():
+    config = team.parse({"region": "iec", "defaults": {"transformer-currents": {"kva": "630 kVA"}}})
+    assert config.input_default("transformer-currents", api.get("transformer-currents").input("kva")) == "630 kVA"
+
+
+@pytest.mark.parametrize("data, words", [
+    ({"regoin": "na"}, "unknown setting 'regoin'"),
+    ({"region": "eu"}, "region 'eu' is not one of"),
+    ({"system_voltages": []}, "system_voltages"),
+    ({"system_voltages": [480, -5]}, "system_voltages is -5"),
+    ({"voltage_drop": {"branch_pct": 50}}, "voltage_drop.branch_pct is 50"),
+    ({"region": "iec", "voltage_drop": {"branch_pct": 3}}, "not used in region iec"),
+    ({"conductor_temp_c": "hot"}, "conductor_temp_c"),
+    ({"organisation": 42}, "organisation must be text"),
+    ({"defaults": {"no-such-calc": {}}}, "is not a calculator"),
+    ({"defaults": {"transformer-currents": {"kva": "0"}}}, "defaults.transformer-currents.kva"),
+    ({"defaults": {"transformer-currents": {"kvaa": 1}}}, "kvaa"),
+    (["region", "na"], "expected key: value"),
+])
+def test_bad_team_settings_stop_with_a_message(data, words):
+    with pytest.raises(team.TeamConfigError, match=re.escape(words)):
+        team.parse(data, "team.yml")
+
+
+def test_team_file_that_is_not_yaml(tmp_path):
+    bad = tmp_path / "team.yml"
+    bad.write_text("region: [na\n", encoding="utf-8")
+    with pytest.raises(team.TeamConfigError, match="not valid YAML"):
+        team.load(bad)
+
+
+# ---- the embedding block ------------------------------------------------------------------
+
+PAGE = """# Pump house
+
+```fluxbook transformer-currents
+# the pump house unit
+kva: 300 kVA
+
+secondary_v: 208 V
+```
+
+Text.
+
+````markdown
+```fluxbook transformer-currents
+kva: 1
+```
+````
+"""
+
+
+def test_block_is_found_with_its_preset_and_a_shown_example_is_left_alone():
+    markdown, blocks = embed.replace_blocks(PAGE, "pump.md")
+    assert blocks == [("transformer-currents", {"kva": "300 kVA", "secondary_v": "208 V"})]
+    assert markdown.count('data-slot="0"') == 1
+    assert "```fluxbook transformer-currents\nkva: 1" in markdown  # inside the longer fence
+
+
+@pytest.mark.parametrize("block, words", [
+    ("```fluxbook nope\n```\n", "pump.md:1: unknown calculator 'nope'"),
+    ("```fluxbook transformer-currents\nkva 300\n```\n", "pump.md:2: write one 'name: value'"),
+    ("```fluxbook transformer-currents\nkva: 0\n```\n", "pump.md:1: transformer-currents: kva"),
+    ("```fluxbook transformer-currents\nvolts: 4\n```\n", "unknown input 'volts'"),
+])
+def test_bad_blocks_stop_the_build_naming_page_and_line(block, words):
+    with pytest.raises(embed.EmbedError, match=re.escape(words)):
+        embed.parse_blocks(block, "pump.md")
+
+
+def test_slots_are_filled_even_when_markdown_wrapped_them():
+    html = '<p><div class="fb-slot" data-slot="0"></div></p><div class="fb-slot" data-slot="1"></div>'
+    assert embed.fill_slots(html, lambda n: f"[{n}]") == "[0][1]"
+
+
+# ---- forms --------------------------------------------------------------------------------
+
+def test_form_has_every_input_output_and_hook():
+    html = forms.render_calculator("transformer-currents", team.TeamConfig())
+    assert 'data-calculator="transformer-currents"' in html and 'data-state="starting"' in html
+    for item in api.get("transformer-currents").inputs:
+        assert f'name="{item.name}"' in html
+    for item in api.get("transformer-currents").outputs:
+        assert f'data-output="{item.name}"' in html
+    assert 'value="75"' in html and '<option value="3" selected>' in html
+
+
+def test_form_escapes_preset_text():
+    html = forms.render_calculator("transformer-currents", team.TeamConfig(),
+                                   preset={"kva": '"><script>alert(1)</script>'})
+    assert "<script>" not in html and "&lt;script&gt;" in html
+
+
+def test_form_offers_the_team_voltages():
+    html = forms.render_calculator("transformer-currents", team.parse({"system_voltages": [347, 600]}))
+    assert '<option value="347 V">' in html and '<option value="600 V">' in html
+
+
+# ---- the calc zip -------------------------------------------------------------------------
+
+def test_calc_zip_is_reproducible_and_complete():
+    first, second = package_calc.calc_zip_bytes(), package_calc.calc_zip_bytes()
+    assert first == second
+    names = zipfile.ZipFile(BytesIO(first)).namelist()
+    expected = sorted("calc/" + p.relative_to(paths.CALC_DIR).as_posix() for p in package_calc.calc_sources())
+    assert names == expected and "calc/api.py" in names
+    assert all(info.date_time == package_calc.ZIP_TIMESTAMP for info in zipfile.ZipFile(BytesIO(first)).infolist())
+
+
+# ---- the built site -----------------------------------------------------------------------
+
+def test_pyodide_pin_matches_package_files():
+    lock = json.loads((ROOT / "package-lock.json").read_text(encoding="utf-8"))
+    assert lock["packages"]["node_modules/pyodide"]["version"] == paths.PYODIDE_VERSION
+    assert json.loads((ROOT / "package.json").read_text())["dependencies"]["pyodide"] == paths.PYODIDE_VERSION
+
+
+def _precache(site):
+    text = (site / paths.SERVICE_WORKER_FILE).read_text(encoding="utf-8")
+    return set(re.findall(r'url:"([^"]+)"', text))
+
+
+def test_precache_holds_every_file_the_site_needs(built_site):
+    precached = _precache(built_site)
+    for name in paths.PYODIDE_FILES:  # including the 9.6 MB wasm and the 2.5 MB stdlib zip
+        assert f"{paths.PYODIDE_SITE_DIR}/{name}" in precached
+    for needed in (paths.CALC_ZIP_SITE_PATH, "index.html", "calculators/transformer-currents/index.html",
+                   "sitemap.xml", "search/search_index.json", "manifest.webmanifest",
+                   "assets/js/calc-worker.js", "assets/vendor/uplot/uPlot.esm.js"):
+        assert needed in precached, needed
+    assert paths.SERVER_HEADERS_FILE not in precached
+
+
+def test_every_shipped_page_asset_is_precached(built_site):
+    precached = _precache(built_site)
+    for page in built_site.rglob("*.html"):
+        text = page.read_text(encoding="utf-8")
+        for ref in re.findall(r'(?:src|href)="([^"#?]+)"', text):
+            if ref.startswith(("http:", "https:", "mailto:", "data:")) or ref.endswith("/"):
+                continue
+            target = (page.parent / ref).resolve()
+            if target.is_file():
+                assert target.relative_to(built_site.resolve()).as_posix() in precached, (page, ref)
+
+
+def test_no_page_loads_anything_from_another_origin(built_site):
+    for page in built_site.rglob("*.html"):
+        text = page.read_text(encoding="utf-8")
+        assert not re.search(r'<(?:script|link|img|iframe)[^>]+(?:src|href)="(?:https?:)?//', text), page
+
+
+def test_server_headers_allow_wasm_and_hash_every_inline_script(built_site):
+    headers = (built_site / paths.SERVER_HEADERS_FILE).read_text(encoding="utf-8")
+    assert "'wasm-unsafe-eval'" in headers and "'unsafe-eval'" not in headers.replace("'wasm-unsafe-eval'", "")
+    for digest in release_files.inline_script_hashes(built_site):
+        assert digest in headers
+
+
+def test_checksums_cover_the_shipped_files(built_site):
+    lines = (built_site / paths.CHECKSUMS_FILE).read_text(encoding="utf-8").splitlines()
+    listed = {line.split("  ", 1)[1] for line in lines}
+    assert paths.SERVICE_WORKER_FILE in listed and paths.CALC_ZIP_SITE_PATH in listed
+
+
+def test_the_same_sources_build_the_same_bytes(built_site, tmp_path):
+    from tests.conftest import build_site
+    again = tmp_path / "again"
+    assert build_site(again).returncode == 0
+    assert (again / paths.CALC_ZIP_SITE_PATH).read_bytes() == (built_site / paths.CALC_ZIP_SITE_PATH).read_bytes()
+    assert _precache(again) == _precache(built_site)
+
+
+def test_organisation_from_the_team_file_reaches_the_pages(tmp_path):
+    from tests.conftest import build_site
+    team_file = tmp_path / "team.yml"
+    team_file.write_text("organisation: Dairy Barn Maintenance\nregion: iec\n", encoding="utf-8")
+    site = tmp_path / "site"
+    assert build_site(site, team_file).returncode == 0
+    page = (site / "calculators/transformer-currents/index.html").read_text(encoding="utf-8")
+    assert "Fluxbook · Dairy Barn Maintenance" in page
+    assert 'name="secondary_v" type="text" inputmode="decimal"' in page and 'value="400"' in page
+
+
+def test_a_bad_team_file_fails_the_build(tmp_path):
+    from tests.conftest import build_site
+    team_file = tmp_path / "team.yml"
+    team_file.write_text("region: mars\n", encoding="utf-8")
+    completed = build_site(tmp_path / "site", team_file)
+    assert completed.returncode != 0 and "region 'mars' is not one of" in completed.stderr
