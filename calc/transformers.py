@@ -26,10 +26,10 @@ COMMON_LINE_TO_NEUTRAL_V = (120.0, 127.0, 230.0, 277.0, 347.0)
 
 # Winding connections: the winding voltage is the line voltage for delta, line/sqrt(3) for wye.
 CONNECTIONS = (
-    ("delta-wye", "Delta primary, wye secondary (Dyn)"),
-    ("delta-delta", "Delta primary, delta secondary (Dd)"),
-    ("wye-wye", "Wye primary, wye secondary (YNyn)"),
-    ("wye-delta", "Wye primary, delta secondary (Yd)"),
+    ("delta-wye", "Delta – wye (Dyn)"),
+    ("delta-delta", "Delta – delta (Dd)"),
+    ("wye-wye", "Wye – wye (Yyn)"),
+    ("wye-delta", "Wye – delta (Yd)"),
 )
 
 
@@ -201,6 +201,7 @@ def _currents_view(inputs):
     result.series = {
         "title": "Line current against load",
         "x": {"label": "Load", "unit": "%", "values": loads},
+        "y_axis": {"label": "Line current", "unit": "A"},
         "y": [
             {"label": "Primary", "unit": "A", "values": [primary_a * p / 100 for p in loads]},
             {"label": "Secondary", "unit": "A", "values": [secondary_a * p / 100 for p in loads]},

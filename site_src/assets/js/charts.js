@@ -1,11 +1,13 @@
 // Charts of a result's series with uPlot (the site's own copy). The series shape is
-// {title, x: {label, unit, values}, y: [{label, unit, values}], marks: [{axis, value, label}]}.
+// {title, x: {label, unit, values}, y: [{label, unit, values}], y_axis?: {label, unit},
+//  marks: [{axis, value, label}]}.
 import uPlot from "../vendor/uplot/uPlot.esm.js";
 
 const LINE_COLOURS = ["--fb-chart-1", "--fb-chart-2", "--fb-chart-3", "--fb-chart-4"];
 
+// The colour scheme is set on <body> (data-md-color-scheme), so read the variables there.
 function cssVar(name) {
-  return getComputedStyle(document.documentElement).getPropertyValue(name).trim() || "#333";
+  return getComputedStyle(document.body).getPropertyValue(name).trim() || "#333";
 }
 
 function axisLabel(part) {
@@ -68,7 +70,7 @@ export function drawChart(figure, series) {
     scales: { x: { time: false } },
     axes: [
       { label: axisLabel(series.x), stroke: axisColour, grid: { stroke: cssVar("--fb-grid") } },
-      { label: series.y.length ? axisLabel(series.y[0]) : "", stroke: axisColour,
+      { label: axisLabel(series.y_axis || series.y[0] || { label: "" }), stroke: axisColour,
         grid: { stroke: cssVar("--fb-grid") }, size: 60 },
     ],
     series: [
