@@ -176,7 +176,8 @@ def _allowed(item):
 
 def _limit(item, which):
     number = getattr(item, which)
-    return f"{number:g} {item.unit}".strip()
+    text = str(int(number)) if float(number).is_integer() else repr(float(number))
+    return f"{text} {item.unit}".strip()  # 1000000 kVA, never 1e+06 kVA
 
 
 def run(calculator_id, inputs):

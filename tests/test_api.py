@@ -97,6 +97,11 @@ def test_range_message_names_field_value_and_limits():
     assert "greater than 0 kVA" in error["message"]
 
 
+def test_limits_are_written_out_not_in_exponent_form():
+    (error,) = api.run("transformer-currents", {"kva": "2000 MVA"})["errors"]
+    assert "at most 1000000 kVA" in error["message"] and "e+" not in error["message"]
+
+
 def test_blank_required_input_is_an_error():
     (error,) = api.run("transformer-currents", {"primary_v": "  "})["errors"]
     assert error["field"] == "primary_v" and "required" in error["message"]
