@@ -221,3 +221,20 @@ def test_a_bad_team_file_fails_the_build(tmp_path):
     team_file.write_text("region: mars\n", encoding="utf-8")
     completed = build_site(tmp_path / "site", team_file)
     assert completed.returncode != 0 and "region 'mars' is not one of" in completed.stderr
+
+
+def test_a_file_too_large_to_precache_fails_the_build(tmp_path):
+    from build import service_worker
+    (tmp_path / "index.html").write_text("<p>hi</p>", encoding="utf-8")
+    (tmp_path / "huge.wasm").write_bytes(b"\0" * (paths.PRECACHE_MAX_FILE_BYTES + 1))
+    with pytest.raises(service_worker.ServiceWorkerError, match="huge.wasm"):
+        service_worker.generate(tmp_path)
+
+
+def test_service_worker_waits_for_the_user_and_cleans_old_caches(built_site):
+    from build import service_worker
+    options = service_worker.workbox_options(built_site)
+    assert options["skipWaiting"] is False and options["cleanupOutdatedCaches"] is True
+    text = (built_site / paths.SERVICE_WORKER_FILE).read_text(encoding="utf-8")
+    assert "SKIP_WAITING" in text  # the page's "reload with the new version" message
+    assert re.search(r'revision:"[0-9a-f]+"', text)  # entries are revisioned

@@ -198,3 +198,10 @@ def test_dark_scheme_follows_the_device(browser, site):
         assert red + green + blue < 150
     finally:
         context.close()
+
+
+def test_home_page_reports_offline_storage(context, site):
+    page = context.new_page()
+    page.goto(site)
+    expect(page.locator("[data-offline-report]")).to_contain_text("stored on this device")
+    expect(page.locator("[data-offline-report]")).to_contain_text("Storage used by this site")

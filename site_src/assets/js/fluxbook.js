@@ -3,7 +3,7 @@
 import { engine, STAGES } from "./engine.js";
 import * as forms from "./forms.js";
 import { renderResult, clearResult } from "./results.js";
-import { startOffline, onOffline } from "./pwa.js";
+import { startOffline, onOffline, reportStorage } from "./pwa.js";
 
 const DEBOUNCE_MS = 250;
 const OFFLINE_WORDS = {
@@ -117,6 +117,8 @@ function wire(root, roots) {
 function initPage() {
   const roots = Array.from(document.querySelectorAll("[data-calculator]"));
   for (const root of roots) wire(root, roots);
+  const report = document.querySelector("[data-offline-report]");
+  if (report) onOffline(() => reportStorage(report));
 }
 
 startOffline();

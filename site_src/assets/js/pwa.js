@@ -59,3 +59,31 @@ export function startOffline() {
     setInterval(() => workbox.update(), UPDATE_CHECK_MS);
   }).catch(() => setOffline("unsupported"));
 }
+
+// A plain report for the home page: is the site stored here, how much space, will it be kept.
+export async function reportStorage(element) {
+  const lines = [];
+  const words = {
+    checking: "Checking whether Fluxbook is stored on this device…",
+    stored: "Fluxbook is stored on this device and works with no network.",
+    unsupported: "This browser cannot keep Fluxbook for offline use; it needs a connection.",
+  };
+  lines.push(words[offline.state] || words.checking);
+  if (navigator.storage && navigator.storage.estimate) {
+    try {
+      const { usage, quota } = await navigator.storage.estimate();
+      const mb = (bytes) => `${(bytes / 1e6).toFixed(1)} MB`;
+      lines.push(`Storage used by this site: ${mb(usage || 0)} of ${mb(quota || 0)} the browser allows.`);
+    } catch (error) { /* no estimate in this browser */ }
+  }
+  if (navigator.storage && navigator.storage.persisted) {
+    const kept = await navigator.storage.persisted().catch(() => false);
+    lines.push(kept ? "The browser has agreed to keep it (persistent storage)."
+      : "The browser may clear it when space runs low or after weeks without a visit; open it now and then while online.");
+  }
+  element.replaceChildren(...lines.map((line) => {
+    const p = document.createElement("p");
+    p.textContent = line;
+    return p;
+  }));
+}
