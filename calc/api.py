@@ -7,11 +7,11 @@ checking, output formatting and the guarantee of finite numbers live in one plac
 import json
 import math
 
-from calc import __version__, transformers, units
+from calc import __version__, conductors, transformers, units
 from calc.errors import CalcError, InputError, InputErrors, UnitError
 
 # The registry: every calculator Fluxbook ships, in the order the site lists them.
-_CALCULATORS = (transformers.CURRENTS,)
+_CALCULATORS = (transformers.CURRENTS, conductors.CONDUCTOR)
 
 REGISTRY = {calculator.id: calculator for calculator in _CALCULATORS}
 

@@ -1,0 +1,735 @@
+"""Conductors: DC and AC resistance, series reactance and effective impedance of one conductor.
+
+Quantities follow the nomenclature page: area [m²], resistance per length [Ω/m], temperature
+[°C], frequency [Hz], spacing [m] (axial, centre to centre).
+"""
+
+import math
+
+from calc import cautions, units
+from calc.errors import InputError
+from calc.spec import Calculator, Input, Output, Result
+from calc.units import format_quantity as fq
+
+METRES_PER_KFT = 304.8  # 1000 ft, exact
+MU0_OVER_2PI = 2e-7  # μ0 / 2π [H/m], the constant of the line-inductance formula
+
+# Resistivity at 20 °C [Ω·m] and temperature coefficient referred to 20 °C [1/K].
+# Copper: annealed, 100 % IACS, 1/58 Ω·mm²/m, α20 = 0.00393 (IEC 60028).
+# Aluminium: EC grade 1350, 61 % IACS, 0.028264 Ω·mm²/m, α20 = 0.00403 (IEC 60889 / IEC 60111;
+# REFERENCE_VALUES 1a, from memory for the standard).
+RESISTIVITY_20C = {"cu": 1e-6 / 58.0, "al": 0.028264e-6}
+ALPHA_20C = {"cu": 0.00393, "al": 0.00403}
+MATERIAL_NAMES = {"cu": "copper", "al": "aluminium"}
+
+# Coefficients referred to 75 °C that NEC Chapter 9 Table 8 note 2 gives for its correction
+# R2 = R1 [1 + α (T2 − 75)] (REFERENCE_VALUES 1a, read).
+ALPHA_75C_NEC = {"cu": 0.00323, "al": 0.00330}
+
+# Concentric-stranding (lay) factor: each strand is longer than the conductor because it is laid
+# helically, so R is about 2 % above ρ/A. Common practice; NEC Table 8 reproduces with it
+# (REFERENCE_VALUES 2a, computed check).
+LAY_FACTOR_STRANDED = 1.02
+
+# NEC Chapter 9 Table 8: DC resistance at 75 °C [Ω per 1000 ft], uncoated copper stranded, and
+# aluminium stranded. 14 AWG to 500 kcmil read (REFERENCE_VALUES 2a); 18, 16 AWG and 600 to
+# 1000 kcmil are from memory (marked). Aluminium 18 and 16 AWG are left out (not recalled).
+NEC_TABLE8_CU_STRANDED_75C = {
+    "18 AWG": 7.95, "16 AWG": 4.99,  # from memory
+    "14 AWG": 3.14, "12 AWG": 1.98, "10 AWG": 1.24, "8 AWG": 0.778, "6 AWG": 0.491,
+    "4 AWG": 0.308, "3 AWG": 0.245, "2 AWG": 0.194, "1 AWG": 0.154, "1/0 AWG": 0.122,
+    "2/0 AWG": 0.0967, "3/0 AWG": 0.0766, "4/0 AWG": 0.0608, "250 kcmil": 0.0515,
+    "300 kcmil": 0.0429, "350 kcmil": 0.0367, "400 kcmil": 0.0321, "500 kcmil": 0.0258,
+    "600 kcmil": 0.0214, "700 kcmil": 0.0184, "750 kcmil": 0.0171, "800 kcmil": 0.0161,
+    "900 kcmil": 0.0143, "1000 kcmil": 0.0129,  # 600 to 1000 kcmil from memory
+}
+NEC_TABLE8_AL_STRANDED_75C = {
+    "14 AWG": 5.17, "12 AWG": 3.25, "10 AWG": 2.04, "8 AWG": 1.28, "6 AWG": 0.808,
+    "4 AWG": 0.508, "3 AWG": 0.403, "2 AWG": 0.319, "1 AWG": 0.253, "1/0 AWG": 0.201,
+    "2/0 AWG": 0.159, "3/0 AWG": 0.126, "4/0 AWG": 0.100, "250 kcmil": 0.0847,
+    "300 kcmil": 0.0707, "350 kcmil": 0.0605, "400 kcmil": 0.0529, "500 kcmil": 0.0424,
+    "600 kcmil": 0.0353, "700 kcmil": 0.0303, "750 kcmil": 0.0282, "800 kcmil": 0.0265,
+    "900 kcmil": 0.0235, "1000 kcmil": 0.0212,  # 600 to 1000 kcmil from memory
+}
+# Uncoated copper, solid: 14 to 8 AWG read as memory (REFERENCE_VALUES 2a, "memory, H");
+# 18 and 16 AWG from memory. Data for solid-conductor work; the calculator assumes stranding.
+NEC_TABLE8_CU_SOLID_75C = {
+    "18 AWG": 7.77, "16 AWG": 4.89, "14 AWG": 3.07, "12 AWG": 1.93, "10 AWG": 1.21,
+    "8 AWG": 0.764,
+}
+
+# IEC 60228 Table 2 (Class 2, stranded): maximum DC resistance at 20 °C [Ω/km]. 1.5 to 300 mm²
+# read (REFERENCE_VALUES 3); 0.75, 1 and 400 mm² from memory. IEC 60228 has no Class 2
+# aluminium conductor below 10 mm².
+IEC60228_CLASS2_CU_20C = {
+    "0.75 mm²": 24.5, "1 mm²": 18.1,  # from memory
+    "1.5 mm²": 12.1, "2.5 mm²": 7.41, "4 mm²": 4.61, "6 mm²": 3.08, "10 mm²": 1.83,
+    "16 mm²": 1.15, "25 mm²": 0.727, "35 mm²": 0.524, "50 mm²": 0.387, "70 mm²": 0.268,
+    "95 mm²": 0.193, "120 mm²": 0.153, "150 mm²": 0.124, "185 mm²": 0.0991,
+    "240 mm²": 0.0754, "300 mm²": 0.0601,
+    "400 mm²": 0.0470,  # from memory
+}
+IEC60228_CLASS2_AL_20C = {
+    "10 mm²": 3.08, "16 mm²": 1.91, "25 mm²": 1.20, "35 mm²": 0.868, "50 mm²": 0.641,
+    "70 mm²": 0.443, "95 mm²": 0.320, "120 mm²": 0.253, "150 mm²": 0.206, "185 mm²": 0.164,
+    "240 mm²": 0.125, "300 mm²": 0.100,
+    "400 mm²": 0.0778,  # from memory
+}
+# IEC 60228 Table 1 (Class 1, solid) copper where it differs from Class 2 (REFERENCE_VALUES 3).
+IEC60228_CLASS1_CU_20C = {"185 mm²": 0.101, "240 mm²": 0.0775, "300 mm²": 0.0620}
+
+# Number of strands. ASTM B8 Class B concentric stranding, as NEC Chapter 9 Table 8 lists it
+# (from memory): 7 strands for 18 to 2 AWG, 19 for 1 to 4/0 AWG, 37 for 250 to 500 kcmil, 61 for
+# 600 to 1000 kcmil. IEC 60228 Class 2 circular non-compacted minimum strand counts (from
+# memory): 7 up to 35 mm², 19 for 50 to 95 mm², 37 for 120 to 240 mm², 61 for 300 and 400 mm².
+# Keyed by the largest area [mm²] of each band.
+STRANDS_CLASS_B = ((34.0, 7), (108.0, 19), (254.0, 37), (507.0, 61))
+STRANDS_CLASS_2 = ((35.0, 7), (95.0, 19), (240.0, 37), (400.0, 61))
+
+# Geometric mean radius of concentric-lay stranding as a fraction of the outer radius, by strand
+# count; 1 is a solid round wire, e^(−1/4). Glover, Sarma & Overbye, Power System Analysis and
+# Design, 5th ed., section 4.5 and Table A.3 — from memory.
+GMR_FRACTION = {1: math.exp(-0.25), 7: 0.726, 19: 0.758, 37: 0.768, 61: 0.772}
+
+# Insulation thickness [mm] assumed for touching conductors, by conductor area up to [mm²].
+# North America: THHN/THWN-2, PVC plus nylon, UL 83 (from memory): 14-12 AWG 19 mil, 10 AWG 24,
+# 8-6 AWG 35, 4-2 AWG 46, 1-4/0 AWG 57, 250-500 kcmil 68, 600-1000 kcmil 79 mil.
+# Metric: PVC insulation, IEC 60502-1 nominal thickness (from memory).
+INSULATION_NA_MM = ((3.4, 0.483), (5.3, 0.610), (13.4, 0.889), (33.7, 1.168), (108.0, 1.448),
+                    (254.0, 1.727), (507.0, 2.007))
+INSULATION_IEC_MM = ((2.5, 0.8), (16.0, 1.0), (35.0, 1.2), (70.0, 1.4), (120.0, 1.6),
+                     (150.0, 1.8), (185.0, 2.0), (240.0, 2.2), (300.0, 2.4), (400.0, 2.6))
+
+# IEC 60287-1-1 clause 2.1.2 / 2.1.4 (Table 2): k_s and k_p for round stranded conductors with
+# extruded insulation, both 1 (from memory). For cables in steel pipe (pipe-type) the standard
+# multiplies y_s and y_p by 1.5 (clause 2.1, from memory); used here for steel conduit.
+K_SKIN = 1.0
+K_PROXIMITY = 1.0
+STEEL_CONDUIT_AC_FACTOR = 1.5
+# The skin-effect formula is accurate up to x_s = 2.8 (IEC 60287-1-1 clause 2.1.2, from memory).
+SKIN_X_LIMIT = 2.8
+
+# NEC Chapter 9 Table 9 reports XL about 25 % higher in steel conduit than in PVC or aluminium
+# conduit (e.g. 12 AWG 0.054 vs 0.068, 500 kcmil 0.039 vs 0.048 Ω/kft; from memory). Used as
+# X_steel = 1.25 X_nonmagnetic.
+STEEL_CONDUIT_X_FACTOR = 1.25
+
+# NEC Chapter 9 Table 9 (75 °C, 60 Hz, three single conductors in conduit), XL [Ω per 1000 ft]:
+# (PVC or aluminium conduit, steel conduit) — from memory. The table's note gives its basis as
+# type RHH conductors with Class B stranding in cradled configuration.
+NEC_TABLE9_XL = {
+    "14 AWG": (0.058, 0.073), "12 AWG": (0.054, 0.068), "10 AWG": (0.050, 0.063),
+    "8 AWG": (0.052, 0.065), "6 AWG": (0.051, 0.064), "4 AWG": (0.048, 0.060),
+    "2 AWG": (0.045, 0.057), "1/0 AWG": (0.044, 0.055), "2/0 AWG": (0.043, 0.054),
+    "4/0 AWG": (0.041, 0.051), "250 kcmil": (0.041, 0.052), "500 kcmil": (0.039, 0.048),
+    "1000 kcmil": (0.037, 0.046),
+}
+
+RACEWAYS = (
+    ("none", "None (free air, cable tray)"),
+    ("pvc", "PVC conduit"),
+    ("aluminum", "Aluminium conduit"),
+    ("steel", "Steel conduit"),
+)
+METHODS = (("physics", "Physics (resistivity, area)"), ("table", "Published table"))
+
+POWER_FACTOR_NEC = 0.85  # NEC Chapter 9 Table 9 note 2: effective Z at 0.85 lagging
+
+
+def _band(table, area_mm2):
+    """The value of the first band of ((largest area, value), ...) that holds `area_mm2`."""
+    for largest, value in table:
+        if area_mm2 <= largest * 1.0001:
+            return value
+    return table[-1][1]
+
+
+def _size_of(size):
+    return units.parse_conductor_size(size)
+
+
+def _material(material):
+    if material not in RESISTIVITY_20C:
+        raise InputError("material", material, "choose one of: cu (copper), al (aluminium)")
+    return material
+
+
+def check_made(size, material):
+    """Refuse a size that is not made in the material.
+
+    Parameters
+    ----------
+    size : ConductorSize or str
+        Conductor size.
+    material : str
+        "cu" or "al".
+
+    Raises
+    ------
+    InputError
+        For a metric size below 10 mm² in aluminium (IEC 60228 has no Class 2 aluminium
+        conductor there); the message lists the aluminium sizes.
+
+    Examples
+    --------
+    >>> check_made("16 mm2", "al")
+    """
+    size = _size_of(size)
+    if _material(material) == "al" and size.system == "mm2" and (
+        size.label not in IEC60228_CLASS2_AL_20C
+    ):
+        allowed = ", ".join(IEC60228_CLASS2_AL_20C)
+        raise InputError("size", size.label, f"{size.label} is not made in aluminium (IEC 60228 "
+                         f"Class 2); aluminium sizes: {allowed}")
+
+
+def strand_count(size):
+    """Number of strands of standard concentric stranding (Class B for AWG/kcmil, Class 2 mm²).
+
+    Examples
+    --------
+    >>> strand_count("12 AWG"), strand_count("4/0"), strand_count("240 mm2")
+    (7, 19, 37)
+    """
+    size = _size_of(size)
+    table = STRANDS_CLASS_2 if size.system == "mm2" else STRANDS_CLASS_B
+    return _band(table, size.area_m2 * 1e6)
+
+
+def conductor_diameter(size, strands=None):
+    """Outer diameter of a concentric-lay stranded (or solid) round conductor.
+
+    Parameters
+    ----------
+    size : ConductorSize or str
+        Conductor size; its nominal area A [m²].
+    strands : int, optional
+        1, 7, 19, 37 or 61; default the size's standard stranding.
+
+    Returns
+    -------
+    float
+        Diameter [m].
+
+    Notes
+    -----
+    n = 1 + 3k(k + 1) equal strands of diameter d_s = √(4A / (π n)) in k layers round a centre
+    strand; the outer diameter is (2k + 1) d_s. For 7 strands that is 3 d_s.
+
+    Examples
+    --------
+    >>> round(conductor_diameter("12 AWG") * 1e3, 3)
+    2.327
+    """
+    size = _size_of(size)
+    strands = strand_count(size) if strands is None else strands
+    layers = round((math.sqrt(12 * strands - 3) - 3) / 6)  # inverse of n = 1 + 3k(k+1)
+    strand_d = math.sqrt(4 * size.area_m2 / (math.pi * strands))
+    return (2 * layers + 1) * strand_d
+
+
+def geometric_mean_radius(size, strands=None):
+    """Geometric mean radius (GMR) of a round conductor [m].
+
+    Notes
+    -----
+    GMR = k r with r the outer radius and k = e^(−1/4) = 0.7788 (solid), 0.726 (7 strands),
+    0.758 (19), 0.768 (37), 0.772 (61).
+
+    References
+    ----------
+    J. D. Glover, M. S. Sarma, T. J. Overbye, Power System Analysis and Design, 5th ed.,
+    section 4.5 and Table A.3 — from memory.
+
+    Examples
+    --------
+    >>> round(geometric_mean_radius("12 AWG") * 1e3, 4)
+    0.8448
+    """
+    size = _size_of(size)
+    strands = strand_count(size) if strands is None else strands
+    return GMR_FRACTION[strands] * conductor_diameter(size, strands) / 2
+
+
+def insulated_diameter(size):
+    """Typical outer diameter over insulation [m]: THHN (AWG, kcmil) or PVC to IEC 60502-1 (mm²).
+
+    Examples
+    --------
+    >>> round(insulated_diameter("12 AWG") * 1e3, 2)
+    3.29
+    """
+    size = _size_of(size)
+    table = INSULATION_IEC_MM if size.system == "mm2" else INSULATION_NA_MM
+    return conductor_diameter(size) + 2e-3 * _band(table, size.area_m2 * 1e6)
+
+
+def geometric_mean_distance(spacing, formation="trefoil"):
+    """Geometric mean distance between three phase conductors [m].
+
+    Parameters
+    ----------
+    spacing : float
+        Axial spacing between adjacent conductors [m].
+    formation : str
+        "trefoil" (equilateral triangle) or "flat" (equally spaced in a row).
+
+    Notes
+    -----
+    GMD = ∛(d_ab d_bc d_ca): s in trefoil, ∛2 s = 1.26 s flat.
+
+    Examples
+    --------
+    >>> round(geometric_mean_distance(0.1, "flat"), 4)
+    0.126
+    """
+    if formation == "flat":
+        return (spacing * spacing * 2 * spacing) ** (1 / 3)
+    return spacing
+
+
+def table_resistance(size, material):
+    """The published DC resistance of a stranded conductor and how to correct it for temperature.
+
+    Returns
+    -------
+    tuple or None
+        (resistance [Ω/m] at the reference temperature, reference temperature [°C], α referred to
+        it [1/K], source text), or None when the table has no value for the size and material.
+
+    Examples
+    --------
+    >>> r, t, alpha, _ = table_resistance("12 AWG", "cu"); round(r * 304.8, 3), t, alpha
+    (1.98, 75.0, 0.00323)
+    """
+    size = _size_of(size)
+    material = _material(material)
+    if size.system == "mm2":
+        table = IEC60228_CLASS2_CU_20C if material == "cu" else IEC60228_CLASS2_AL_20C
+        if size.label not in table:
+            return None
+        return (table[size.label] * 1e-3, 20.0, ALPHA_20C[material],
+                "IEC 60228 Table 2 (Class 2) maximum at 20 °C, corrected with Annex B α20")
+    table = NEC_TABLE8_CU_STRANDED_75C if material == "cu" else NEC_TABLE8_AL_STRANDED_75C
+    if size.label not in table:
+        return None
+    return (table[size.label] / METRES_PER_KFT, 75.0, ALPHA_75C_NEC[material],
+            "NEC Chapter 9 Table 8 (stranded, 75 °C), corrected with its note 2 α75")
+
+
+def dc_resistance(size, material, temperature_c=20.0, method="physics"):
+    """DC resistance of one stranded conductor per unit length.
+
+    Parameters
+    ----------
+    size : ConductorSize or str
+        Conductor size ("12 AWG", "250 kcmil", "2.5 mm2").
+    material : str
+        "cu" (annealed copper, 100 % IACS) or "al" (aluminium 1350, 61 % IACS).
+    temperature_c : float
+        Conductor temperature [°C].
+    method : str
+        "physics" (resistivity, area and lay factor) or "table" (NEC Chapter 9 Table 8 for AWG
+        and kcmil, IEC 60228 Class 2 for mm², corrected to `temperature_c`).
+
+    Returns
+    -------
+    float
+        Resistance [Ω/m].
+
+    Raises
+    ------
+    InputError
+        For a size not made in the material, or "table" where the table has no value.
+
+    Notes
+    -----
+    Physics: R = ρ20 [1 + α20 (T − 20)] / A × 1.02. Table: R = R_ref [1 + α_ref (T − T_ref)].
+
+    References
+    ----------
+    IEC 60028 (copper resistivity); NEC Chapter 9 Table 8 and its note 2; IEC 60228 Table 2 and
+    Annex B.
+
+    Examples
+    --------
+    >>> round(dc_resistance("12 AWG", "cu", 75.0) * 304.8, 3)
+    1.97
+    """
+    size = _size_of(size)
+    material = _material(material)
+    check_made(size, material)
+    if method == "table":
+        entry = table_resistance(size, material)
+        if entry is None:
+            raise InputError("method", method, f"no published table value for {size.label} "
+                             f"{MATERIAL_NAMES[material]}; choose physics")
+        resistance, reference_c, alpha, _ = entry
+        return resistance * (1 + alpha * (temperature_c - reference_c))
+    rho = RESISTIVITY_20C[material] * (1 + ALPHA_20C[material] * (temperature_c - 20.0))
+    return rho / size.area_m2 * LAY_FACTOR_STRANDED
+
+
+def _effect_term(r_dc, frequency, k):
+    """x⁴ / (192 + 0.8 x⁴) with x² = 8πf / R' × 10⁻⁷ k (the shape both IEC factors share)."""
+    x4 = (8 * math.pi * frequency / r_dc * 1e-7 * k) ** 2
+    return x4 / (192 + 0.8 * x4)
+
+
+def skin_argument(r_dc, frequency, k_s=K_SKIN):
+    """IEC 60287-1-1 clause 2.1.2 argument x_s = √(8πf / R' × 10⁻⁷ k_s) (R' in Ω/m).
+
+    Examples
+    --------
+    >>> round(skin_argument(8.465e-5, 60.0), 3)
+    1.335
+    """
+    return math.sqrt(8 * math.pi * frequency / r_dc * 1e-7 * k_s)
+
+
+def skin_effect_factor(r_dc, frequency, k_s=K_SKIN):
+    """Skin-effect factor y_s of IEC 60287-1-1 clause 2.1.2.
+
+    Parameters
+    ----------
+    r_dc : float
+        DC resistance at operating temperature R' [Ω/m].
+    frequency : float
+        [Hz]; 0 gives 0.
+    k_s : float
+        Conductor-construction constant (1 for round stranded).
+
+    Returns
+    -------
+    float
+        y_s (R_ac = R' (1 + y_s + y_p)).
+
+    Notes
+    -----
+    x_s² = 8πf / R' × 10⁻⁷ k_s; y_s = x_s⁴ / (192 + 0.8 x_s⁴), accurate for x_s ≤ 2.8.
+
+    References
+    ----------
+    IEC 60287-1-1, clause 2.1.2 — from memory.
+
+    Examples
+    --------
+    >>> round(skin_effect_factor(8.465e-5, 60.0), 4)
+    0.0163
+    """
+    return _effect_term(r_dc, frequency, k_s)
+
+
+def proximity_effect_factor(r_dc, frequency, diameter, spacing, k_p=K_PROXIMITY):
+    """Proximity-effect factor y_p for three single-core cables (or three-core), IEC 60287-1-1.
+
+    Parameters
+    ----------
+    r_dc : float
+        R' [Ω/m].
+    frequency : float
+        [Hz].
+    diameter : float
+        Conductor diameter d_c [m].
+    spacing : float
+        Axial spacing s [m] (for flat formation √(s1 s2)).
+    k_p : float
+        Construction constant (1 for round stranded, extruded insulation).
+
+    Notes
+    -----
+    x_p² = 8πf / R' × 10⁻⁷ k_p, F = x_p⁴ / (192 + 0.8 x_p⁴);
+    y_p = F (d_c/s)² [0.312 (d_c/s)² + 1.18 / (F + 0.27)].
+
+    References
+    ----------
+    IEC 60287-1-1, clause 2.1.4 — from memory.
+
+    Examples
+    --------
+    >>> round(proximity_effect_factor(8.465e-5, 60.0, 0.02065, 0.0241), 4)
+    0.0521
+    """
+    term = _effect_term(r_dc, frequency, k_p)
+    ratio2 = (diameter / spacing) ** 2
+    return term * ratio2 * (0.312 * ratio2 + 1.18 / (term + 0.27))
+
+
+def series_reactance(frequency, gmd, gmr):
+    """Series (positive-sequence) reactance per conductor of a three-phase line [Ω/m].
+
+    Notes
+    -----
+    X = 2πf × 2×10⁻⁷ × ln(GMD / GMR).
+
+    References
+    ----------
+    J. D. Glover, M. S. Sarma, T. J. Overbye, Power System Analysis and Design, 5th ed.,
+    section 4.5 — from memory.
+
+    Examples
+    --------
+    >>> round(series_reactance(60.0, 3.29e-3, 0.8448e-3) * 304.8, 4)
+    0.0312
+    """
+    return 2 * math.pi * frequency * MU0_OVER_2PI * math.log(gmd / gmr)
+
+
+def effective_impedance(resistance, reactance, power_factor=POWER_FACTOR_NEC):
+    """Effective impedance Z = R cos θ + X sin θ (NEC Chapter 9 Table 9, note 2).
+
+    Examples
+    --------
+    >>> round(effective_impedance(1.0, 1.0, 0.85), 4)
+    1.3768
+    """
+    return resistance * power_factor + reactance * math.sin(math.acos(power_factor))
+
+
+def _per_length(value, metric):
+    """Ω/m shown as the trade reads it: Ω/kft first for AWG/kcmil, Ω/km first for mm²."""
+    kft = f"{fq(value * METRES_PER_KFT, '')} Ω/kft"
+    km = fq(value, "ohm/m")
+    return f"{km} ({kft})" if metric else f"{kft} ({km})"
+
+
+def _geometry(size, raceway, spacing):
+    """(axial spacing [m], its description) for touching conductors or the given spacing."""
+    if spacing is not None:
+        return spacing, f"given axial spacing {fq(spacing, 'm')} (trefoil)"
+    touching = insulated_diameter(size)
+    insulation = "PVC (IEC 60502-1)" if size.system == "mm2" else "THHN"
+    where = "in the raceway" if raceway != "none" else "(no spacing given)"
+    return touching, (f"touching conductors {where}: typical {insulation} outer diameter "
+                      f"{fq(touching, 'm')} (trefoil)")
+
+
+def _table9_reactance(size, raceway, frequency, spacing):
+    """NEC Table 9 XL [Ω/m] scaled to `frequency`, for conductors in conduit at no given spacing."""
+    table9 = NEC_TABLE9_XL.get(size.label)
+    if table9 is None or raceway == "none" or spacing is not None or frequency <= 0:
+        return None
+    return table9[1 if raceway == "steel" else 0] / METRES_PER_KFT * frequency / 60.0
+
+
+def _conductor_view(inputs):
+    size = inputs["size"]
+    material = inputs["material"]
+    temperature = inputs["temperature_c"]
+    frequency = inputs["frequency_hz"]
+    raceway = inputs["raceway"]
+    method = inputs["method"]
+    metric = size.system == "mm2"
+    name = MATERIAL_NAMES[material]
+    result = Result()
+
+    check_made(size, material)
+    diameter = conductor_diameter(size)
+    spacing, geometry_text = _geometry(size, raceway, inputs["spacing_m"])
+    if spacing < diameter:
+        raise InputError("spacing_m", inputs["spacing_m"],
+                         f"{spacing * 1e3:.3g} mm is less than the conductor diameter "
+                         f"{diameter * 1e3:.3g} mm; enter the centre-to-centre spacing")
+    entry = table_resistance(size, material)
+    if method == "table" and entry is None:
+        dc_resistance(size, material, temperature, "table")  # raises the field error
+    r_physics = dc_resistance(size, material, temperature, "physics")
+    r_table = dc_resistance(size, material, temperature, "table") if entry else None
+    r_dc = r_table if method == "table" else r_physics
+
+    # AC resistance
+    if frequency > 0:
+        x_s = skin_argument(r_dc, frequency)
+        y_s = skin_effect_factor(r_dc, frequency)
+        y_p = proximity_effect_factor(r_dc, frequency, diameter, spacing)
+    else:
+        x_s = y_s = y_p = 0.0
+    ac_factor = STEEL_CONDUIT_AC_FACTOR if raceway == "steel" else 1.0
+    r_ac = r_dc * (1 + ac_factor * (y_s + y_p))
+
+    # Reactance: geometry, or NEC Table 9 XL when the table method applies to a raceway
+    gmr = geometric_mean_radius(size)
+    gmd = geometric_mean_distance(spacing)
+    x_factor = STEEL_CONDUIT_X_FACTOR if raceway == "steel" else 1.0
+    x_geometry = x_factor * series_reactance(frequency, gmd, gmr)
+    x_table9 = _table9_reactance(size, raceway, frequency, inputs["spacing_m"])
+    x = x_table9 if method == "table" and x_table9 is not None else x_geometry
+    z = effective_impedance(r_ac, x)
+
+    area_display = fq(size.area_m2, "m2")
+    if not metric:
+        area_display += f" ({size.area_m2 / units.CIRCULAR_MIL_M2:.0f} cmil)"
+    result.output("area", size.area_m2, area_display)
+    result.output("r_dc", r_dc, _per_length(r_dc, metric))
+    result.output("r_ac", r_ac, _per_length(r_ac, metric))
+    result.output("x", x, _per_length(x, metric))
+    if r_table is not None:
+        result.output("r_dc_table", r_table, _per_length(r_table, metric))
+    result.output("z_085", z, _per_length(z, metric))
+
+    # Steps
+    t = fq(temperature, "degC")
+    alpha20 = ALPHA_20C[material]
+    rho20 = RESISTIVITY_20C[material] * 1e6
+    result.step(f"Area of {size.label}" + (" (ASTM B258)" if size.system == "awg" else ""),
+                "A", f"= {area_display}")
+    result.step(f"DC resistance from resistivity ({name}, lay factor {LAY_FACTOR_STRANDED})",
+                "R = ρ20 [1 + α20 (T − 20)] / A × k_lay",
+                f"= {rho20:.6g} Ω·mm²/m × [1 + {alpha20} × ({temperature:g} − 20)] / "
+                f"{size.area_m2 * 1e6:.4g} mm² × {LAY_FACTOR_STRANDED} = "
+                f"{_per_length(r_physics, metric)}")
+    if entry is not None:
+        r_ref, t_ref, alpha_ref, source = entry
+        result.step(f"DC resistance from the table: {source}",
+                    "R = R_ref [1 + α (T − T_ref)]",
+                    f"= {_per_length(r_ref, metric)} × [1 + {alpha_ref} × ({temperature:g} − "
+                    f"{t_ref:g})] = {_per_length(r_table, metric)}")
+    if frequency > 0:
+        result.step("Skin effect (IEC 60287-1-1 2.1.2)",
+                    "x_s² = 8πf / R' × 10⁻⁷; y_s = x_s⁴ / (192 + 0.8 x_s⁴)",
+                    f"x_s = {x_s:.3g}; y_s = {y_s:.3g}")
+        result.step(f"Proximity effect (IEC 60287-1-1 2.1.4), d_c = {fq(diameter, 'm')}, "
+                    f"s = {fq(spacing, 'm')}",
+                    "y_p = F (d_c/s)² [0.312 (d_c/s)² + 1.18 / (F + 0.27)]", f"y_p = {y_p:.3g}")
+        steel = f" × {STEEL_CONDUIT_AC_FACTOR} (steel conduit)" if raceway == "steel" else ""
+        result.step("AC resistance", "R_ac = R_dc [1 + k (y_s + y_p)]",
+                    f"= {_per_length(r_dc, metric)} × [1 + ({y_s:.3g} + {y_p:.3g}){steel}] = "
+                    f"{_per_length(r_ac, metric)}")
+        if x is x_table9:
+            result.step("Series reactance from NEC Chapter 9 Table 9 (method table)",
+                        "X = XL_Table9 × f / 60 Hz", f"= {_per_length(x, metric)}")
+        steel_x = f" × {STEEL_CONDUIT_X_FACTOR}" if raceway == "steel" else ""
+        result.step(f"Series reactance: GMR = {GMR_FRACTION[strand_count(size)]:.4g} r "
+                    f"({strand_count(size)} strands) = {gmr * 1e3:.4g} mm; "
+                    f"GMD = {gmd * 1e3:.4g} mm",
+                    "X = 2πf × 2×10⁻⁷ × ln(GMD / GMR)" + steel_x,
+                    f"= 2π × {frequency:g} Hz × 2×10⁻⁷ × ln({gmd * 1e3:.4g} / {gmr * 1e3:.4g})"
+                    f"{steel_x} = {_per_length(x_geometry, metric)}")
+    else:
+        result.step("DC (0 Hz): no skin or proximity effect and no reactance", "R_ac = R_dc; X = 0",
+                    f"= {_per_length(r_ac, metric)}")
+    result.step("Effective impedance at 0.85 power factor (NEC Chapter 9 Table 9 note 2)",
+                "Z = R_ac cos θ + X sin θ, cos θ = 0.85",
+                f"= {_per_length(r_ac, metric)} × 0.85 + {_per_length(x, metric)} × 0.527 = "
+                f"{_per_length(z, metric)}")
+
+    # Checks
+    if r_table is not None:
+        ratio = r_physics / r_table
+        if metric:
+            ok = 0.88 <= ratio <= 1.0
+            result.check("table_agreement", "pass" if ok else "warn",
+                         f"Physics gives {ratio:.1%} of the IEC 60228 maximum; a conforming "
+                         "conductor lies below that maximum (expected 88–100 %). IEC 60228 "
+                         "(the maximum) and the maker's data are the basis for compliance.")
+        else:
+            ok = abs(ratio - 1) <= 0.03
+            result.check("table_agreement", "pass" if ok else "warn",
+                         f"Physics and NEC Chapter 9 Table 8 differ by {ratio - 1:+.1%} (pass "
+                         "within 3 %). NEC Table 8 is the basis the code uses for NEC "
+                         "calculations.")
+    if frequency > 0:
+        valid = x_s <= SKIN_X_LIMIT
+        result.check("skin_effect_validity", "pass" if valid else "warn",
+                     f"x_s = {x_s:.3g}; the IEC 60287-1-1 skin formula holds for x_s ≤ "
+                     f"{SKIN_X_LIMIT}" + ("." if valid else "; beyond it use an exact (Bessel) "
+                                          "solution or the maker's AC resistance."))
+    if x_table9 is not None:
+        effect = effective_impedance(r_ac, x_geometry) / effective_impedance(r_ac, x_table9) - 1
+        used = "Table 9's XL is used (method table)" if method == "table" else (
+            "the geometric X is used; choose method table to use Table 9's")
+        status = "pass" if method == "table" or abs(effect) <= 0.05 else "warn"
+        result.check("table9_reactance", status,
+                     f"NEC Chapter 9 Table 9 lists XL = {_per_length(x_table9, metric)} "
+                     f"(scaled to {frequency:g} Hz); touching-conductor geometry gives "
+                     f"{_per_length(x_geometry, metric)} ({x_geometry / x_table9 - 1:+.0%}). "
+                     "Table 9 assumes RHH conductors in cradled configuration. Effect on Z at "
+                     f"0.85 pf: {effect:+.1%} (warn beyond 5 % if the geometry is used); "
+                     f"{used}. For NEC voltage drop Table 9 is the usual basis.")
+
+    result.assumptions += [
+        f"Concentric stranded {name} conductor, {strand_count(size)} strands "
+        + ("(IEC 60228 Class 2)." if metric else "(ASTM B8 Class B)."),
+        f"Lay (stranding) factor {LAY_FACTOR_STRANDED} on ρ/A (common practice).",
+        f"Three phase conductors in trefoil; {geometry_text}. A flat formation has "
+        "GMD = 1.26 × spacing.",
+        "Temperature is the conductor temperature; resistance is linear in temperature with "
+        "the stated α.",
+    ]
+    if raceway == "steel":
+        result.assumptions.append(
+            f"Steel conduit: X × {STEEL_CONDUIT_X_FACTOR} (NEC Chapter 9 Table 9 steel vs PVC "
+            f"columns, from memory) and (y_s + y_p) × {STEEL_CONDUIT_AC_FACTOR} (IEC 60287-1-1 "
+            "pipe-type cables, from memory).")
+    if raceway == "aluminum":
+        result.assumptions.append(
+            "Aluminium conduit is non-magnetic: treated as PVC. NEC Table 9 lists slightly "
+            "higher AC resistance in aluminium conduit for large sizes (induced conduit "
+            "currents); that is not modelled.")
+    result.sources += [
+        "Resistivity and α: IEC 60028 (copper, 1/58 Ω·mm²/m, 0.00393 /K); IEC 60889 "
+        "(aluminium 1350, 0.028264 Ω·mm²/m, 0.00403 /K) — from memory.",
+        "NEC Chapter 9 Table 8 (DC resistance at 75 °C) and Table 9 (AC resistance and "
+        "reactance, 60 Hz, 75 °C); IEC 60228 Tables 1 and 2 and Annex B.",
+        "Skin and proximity effect: IEC 60287-1-1 clauses 2.1.2 and 2.1.4 — from memory.",
+        "GMR and X = 2πf 2×10⁻⁷ ln(GMD/GMR): Glover, Sarma & Overbye, Power System Analysis "
+        "and Design, 5th ed., section 4.5, Table A.3 — from memory.",
+        "Insulation thickness for touching conductors: UL 83 (THHN), IEC 60502-1 (PVC) — "
+        "from memory.",
+    ]
+    result.cautions += [
+        "Ampacity, the insulation's temperature rating, termination ratings and derating for "
+        "grouping or ambient temperature are not checked here; size conductors by your code.",
+    ]
+    result.cautions += list(cautions.COMMON)
+
+    low, high = min(-20.0, temperature), max(120.0, temperature)
+    temperatures = [low + (high - low) * k / 28 for k in range(29)]
+    curve = "table" if method == "table" else "physics"
+    result.series = {
+        "title": f"Resistance of {size.label} {name} against temperature",
+        "x": {"label": "Conductor temperature", "unit": "°C", "values": temperatures},
+        "y_axis": {"label": "DC resistance", "unit": "Ω/km"},
+        "y": [{"label": f"DC resistance ({curve})", "unit": "Ω/km",
+               "values": [dc_resistance(size, material, t_c, curve) * 1e3
+                          for t_c in temperatures]}],
+        "marks": [{"axis": "x", "value": temperature, "label": f"{t}"}],
+    }
+    return result
+
+
+CONDUCTOR = Calculator(
+    id="conductor",
+    title="Conductor resistance and reactance",
+    summary="DC and AC resistance, series reactance and effective impedance of one conductor "
+            "by size, material, temperature, frequency and raceway.",
+    group="Conductors",
+    inputs=(
+        Input("size", "Conductor size", "size", default="12 AWG",
+              region_defaults={"iec": "2.5 mm²"},
+              help="AWG, kcmil or mm², e.g. 12 AWG, 4/0, 250 kcmil, 2.5 mm²."),
+        Input("material", "Material", "choice", default="cu",
+              choices=(("cu", "Copper"), ("al", "Aluminium"))),
+        Input("temperature_c", "Conductor temperature", "quantity", unit="degC", default=75,
+              minimum=-40, maximum=250, region_defaults={"iec": 70},
+              help="Operating temperature of the conductor (75 °C NEC tables, 70 °C PVC)."),
+        Input("frequency_hz", "Frequency", "quantity", unit="Hz", default=60, minimum=0,
+              maximum=400, region_defaults={"iec": 50}, help="0 Hz means DC."),
+        Input("raceway", "Raceway", "choice", default="pvc", choices=RACEWAYS,
+              help="Steel conduit raises reactance and AC resistance."),
+        Input("spacing_m", "Conductor spacing", "quantity", unit="m", optional=True, minimum=0,
+              min_exclusive=True, maximum=10,
+              help="Centre-to-centre spacing in trefoil; blank means touching conductors."),
+        Input("method", "Resistance method", "choice", default="physics", choices=METHODS,
+              help="Physics from resistivity, or the published table (NEC Table 8, IEC 60228)."),
+    ),
+    outputs=(
+        Output("area", "Cross-section", "m²"),
+        Output("r_dc", "DC resistance", "Ω/m"),
+        Output("r_ac", "AC resistance", "Ω/m"),
+        Output("x", "Series reactance", "Ω/m"),
+        Output("r_dc_table", "DC resistance, published table", "Ω/m"),
+        Output("z_085", "Effective impedance at 0.85 pf", "Ω/m"),
+    ),
+    compute=_conductor_view,
+)
