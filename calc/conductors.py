@@ -5,6 +5,7 @@ Quantities follow the nomenclature page: area [m²], resistance per length [Ω/m
 """
 
 import math
+from typing import NamedTuple
 
 from calc import cautions, units
 from calc.errors import InputError
@@ -512,6 +513,88 @@ def _table9_reactance(size, raceway, frequency, spacing):
     return table9[1 if raceway == "steel" else 0] / METRES_PER_KFT * frequency / 60.0
 
 
+class ConductorImpedance(NamedTuple):
+    """One conductor's impedance per metre and the figures it was found from (SI units)."""
+
+    r_dc: float  # by the chosen method [Ω/m]
+    r_ac: float  # [Ω/m]
+    x: float  # by the chosen method [Ω/m]
+    r_dc_physics: float
+    r_dc_table: float | None  # None where the table has no entry
+    x_geometry: float
+    x_table9: float | None  # NEC Table 9 XL, for conductors in conduit at no given spacing
+    x_s: float
+    y_s: float
+    y_p: float
+    diameter: float  # conductor [m]
+    spacing: float  # axial [m]
+    gmr: float
+    gmd: float
+    geometry_text: str
+
+
+def impedance(size, material, temperature_c, frequency_hz, raceway="pvc", spacing_m=None,
+              method="physics"):
+    """Resistance and reactance per metre of one conductor, the way every run calculator needs.
+
+    Parameters
+    ----------
+    size : calc.units.ConductorSize or str
+    material : str
+        "cu" or "al".
+    temperature_c : float
+        Conductor temperature [°C].
+    frequency_hz : float
+        0 for DC.
+    raceway : str
+        "none", "pvc", "aluminum" or "steel".
+    spacing_m : float or None
+        Axial spacing in trefoil [m]; None means touching conductors.
+    method : str
+        "physics", or "table" (NEC Table 8 / IEC 60228 resistance, NEC Table 9 reactance).
+
+    Returns
+    -------
+    ConductorImpedance
+
+    Raises
+    ------
+    calc.errors.InputError
+        For a size not made in the material, a table with no entry, or a spacing smaller than
+        the conductor.
+    """
+    size = _size_of(size)
+    check_made(size, material)
+    diameter = conductor_diameter(size)
+    spacing, geometry_text = _geometry(size, raceway, spacing_m)
+    if spacing < diameter:
+        raise InputError("spacing_m", spacing_m,
+                         f"{spacing * 1e3:.3g} mm is less than the conductor diameter "
+                         f"{diameter * 1e3:.3g} mm; enter the centre-to-centre spacing")
+    entry = table_resistance(size, material)
+    if method == "table" and entry is None:
+        dc_resistance(size, material, temperature_c, "table")  # raises the field error
+    r_physics = dc_resistance(size, material, temperature_c, "physics")
+    r_table = dc_resistance(size, material, temperature_c, "table") if entry else None
+    r_dc = r_table if method == "table" else r_physics
+    if frequency_hz > 0:
+        x_s = skin_argument(r_dc, frequency_hz)
+        y_s = skin_effect_factor(r_dc, frequency_hz)
+        y_p = proximity_effect_factor(r_dc, frequency_hz, diameter, spacing)
+    else:
+        x_s = y_s = y_p = 0.0
+    ac_factor = STEEL_CONDUIT_AC_FACTOR if raceway == "steel" else 1.0
+    r_ac = r_dc * (1 + ac_factor * (y_s + y_p))
+    gmr = geometric_mean_radius(size)
+    gmd = geometric_mean_distance(spacing)
+    x_factor = STEEL_CONDUIT_X_FACTOR if raceway == "steel" else 1.0
+    x_geometry = x_factor * series_reactance(frequency_hz, gmd, gmr)
+    x_table9 = _table9_reactance(size, raceway, frequency_hz, spacing_m)
+    x = x_table9 if method == "table" and x_table9 is not None else x_geometry
+    return ConductorImpedance(r_dc, r_ac, x, r_physics, r_table, x_geometry, x_table9, x_s, y_s,
+                              y_p, diameter, spacing, gmr, gmd, geometry_text)
+
+
 def _conductor_view(inputs):
     size = inputs["size"]
     material = inputs["material"]
@@ -523,37 +606,12 @@ def _conductor_view(inputs):
     name = MATERIAL_NAMES[material]
     result = Result()
 
-    check_made(size, material)
-    diameter = conductor_diameter(size)
-    spacing, geometry_text = _geometry(size, raceway, inputs["spacing_m"])
-    if spacing < diameter:
-        raise InputError("spacing_m", inputs["spacing_m"],
-                         f"{spacing * 1e3:.3g} mm is less than the conductor diameter "
-                         f"{diameter * 1e3:.3g} mm; enter the centre-to-centre spacing")
+    z = impedance(size, material, temperature, frequency, raceway, inputs["spacing_m"], method)
+    diameter, spacing, geometry_text = z.diameter, z.spacing, z.geometry_text
+    r_physics, r_table, r_dc, r_ac = z.r_dc_physics, z.r_dc_table, z.r_dc, z.r_ac
+    x_s, y_s, y_p, x, x_geometry, x_table9 = z.x_s, z.y_s, z.y_p, z.x, z.x_geometry, z.x_table9
+    gmr, gmd = z.gmr, z.gmd
     entry = table_resistance(size, material)
-    if method == "table" and entry is None:
-        dc_resistance(size, material, temperature, "table")  # raises the field error
-    r_physics = dc_resistance(size, material, temperature, "physics")
-    r_table = dc_resistance(size, material, temperature, "table") if entry else None
-    r_dc = r_table if method == "table" else r_physics
-
-    # AC resistance
-    if frequency > 0:
-        x_s = skin_argument(r_dc, frequency)
-        y_s = skin_effect_factor(r_dc, frequency)
-        y_p = proximity_effect_factor(r_dc, frequency, diameter, spacing)
-    else:
-        x_s = y_s = y_p = 0.0
-    ac_factor = STEEL_CONDUIT_AC_FACTOR if raceway == "steel" else 1.0
-    r_ac = r_dc * (1 + ac_factor * (y_s + y_p))
-
-    # Reactance: geometry, or NEC Table 9 XL when the table method applies to a raceway
-    gmr = geometric_mean_radius(size)
-    gmd = geometric_mean_distance(spacing)
-    x_factor = STEEL_CONDUIT_X_FACTOR if raceway == "steel" else 1.0
-    x_geometry = x_factor * series_reactance(frequency, gmd, gmr)
-    x_table9 = _table9_reactance(size, raceway, frequency, inputs["spacing_m"])
-    x = x_table9 if method == "table" and x_table9 is not None else x_geometry
     z = effective_impedance(r_ac, x)
 
     area_display = fq(size.area_m2, "m2")
@@ -595,7 +653,7 @@ def _conductor_view(inputs):
         result.step("AC resistance", "R_ac = R_dc [1 + k (y_s + y_p)]",
                     f"= {_per_length(r_dc, metric)} × [1 + ({y_s:.3g} + {y_p:.3g}){steel}] = "
                     f"{_per_length(r_ac, metric)}")
-        if x is x_table9:
+        if method == "table" and x_table9 is not None:
             result.step("Series reactance from NEC Chapter 9 Table 9 (method table)",
                         "X = XL_Table9 × f / 60 Hz", f"= {_per_length(x, metric)}")
         steel_x = f" × {STEEL_CONDUIT_X_FACTOR}" if raceway == "steel" else ""
