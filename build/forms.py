@@ -122,15 +122,19 @@ def render_calculator(calculator_id, config, preset=None, index=0):
     preset = preset or {}
     prefix = f"fb{index}"
     datalist_id = f"{prefix}-voltages"
-    fields = "".join(
-        _field(
-            item,
-            prefix,
-            _default_text(item, preset.get(item.name, config.input_default(calculator_id, item))),
-            datalist_id,
+    def field_html(item):
+        value = preset.get(item.name, config.input_default(calculator_id, item))
+        return _field(item, prefix, _default_text(item, value), datalist_id)
+
+    fields = "".join(field_html(item) for item in calculator.inputs if not item.advanced)
+    advanced = [item for item in calculator.inputs if item.advanced]
+    if advanced:
+        names = ", ".join(item.label.lower() for item in advanced[:3])
+        fields += (
+            f'<details class="fb-more"><summary>More inputs ({escape(names)}…)</summary>'
+            f'<div class="fb-more__fields">{"".join(field_html(item) for item in advanced)}</div>'
+            "</details>"
         )
-        for item in calculator.inputs
-    )
     datalist = (
         f'<datalist id="{datalist_id}">'
         + "".join(f'<option value="{_attr(units.format_quantity(v, "V"))}"></option>' for v in config.system_voltages)

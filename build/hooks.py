@@ -11,7 +11,7 @@ if str(ROOT) not in sys.path:  # MkDocs loads this file by path; calc/ and build
 from mkdocs.exceptions import PluginError  # noqa: E402
 from mkdocs.structure.files import File  # noqa: E402
 
-from build import embed, forms, package_calc, paths, release_files, service_worker, team  # noqa: E402
+from build import embed, forms, package_calc, paths, reference, release_files, service_worker, team  # noqa: E402,E501
 from calc import __version__, api  # noqa: E402
 
 CALCULATOR_LIST_MARKER = "<!-- fluxbook:calculator-list -->"
@@ -47,6 +47,8 @@ def _check_pyodide_version():
 
 
 def on_files(files, config):
+    for path, builder in reference.pages().items():
+        files.append(File.generated(config, path, content=builder(_state["config"])))
     files.append(File.generated(config, paths.CALC_ZIP_SITE_PATH, content=package_calc.calc_zip_bytes()))
     for name in paths.PYODIDE_FILES:
         source = paths.NODE_MODULES / "pyodide" / name

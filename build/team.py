@@ -34,6 +34,13 @@ REGION_DROP_LIMITS = {
 # at 75 °C; IEC 60364-5-52 Annex G uses 1.25 × ρ20, about 80 °C for copper (computed).
 REGION_CONDUCTOR_TEMP_C = {"na": 75.0, "iec": 80.0}
 
+# Calculator inputs that take their starting value from a team-wide setting. The first voltage-
+# drop figure is the branch (na) or lighting (iec) recommendation.
+TEAM_WIDE_INPUTS = {
+    "max_drop_pct": lambda config: next(iter(config.voltage_drop.values())),
+    "conductor_temp_c": lambda config: config.conductor_temp_c,
+}
+
 KEYS = ("organisation", "region", "system_voltages", "voltage_drop", "conductor_temp_c", "defaults")
 
 
@@ -52,10 +59,16 @@ class TeamConfig:
     source: str = "built-in defaults"
 
     def input_default(self, calculator_id, item):
-        """The value a form field starts with: the team's, else the region's, else the spec's."""
+        """The value a form field starts with: the team's, else the region's, else the spec's.
+
+        Inputs named after a team-wide setting (the drop limit, the conductor temperature)
+        start from that setting unless the team set the field itself.
+        """
         team = self.defaults.get(calculator_id, {})
         if item.name in team:
             return team[item.name]
+        if item.name in TEAM_WIDE_INPUTS:
+            return TEAM_WIDE_INPUTS[item.name](self)
         return item.region_defaults.get(self.region, item.default)
 
     def for_page(self):

@@ -7,11 +7,17 @@ checking, output formatting and the guarantee of finite numbers live in one plac
 import json
 import math
 
-from calc import __version__, conductors, transformers, units
+from calc import __version__, conductors, transformers, units, voltage_drop
 from calc.errors import CalcError, InputError, InputErrors, UnitError
 
 # The registry: every calculator Fluxbook ships, in the order the site lists them.
-_CALCULATORS = (transformers.CURRENTS, conductors.CONDUCTOR)
+_CALCULATORS = (
+    transformers.CURRENTS,
+    conductors.CONDUCTOR,
+    voltage_drop.VOLTAGE_DROP,
+    voltage_drop.WIRE_SIZE,
+    voltage_drop.MAX_LENGTH,
+)
 
 REGISTRY = {calculator.id: calculator for calculator in _CALCULATORS}
 
@@ -80,6 +86,8 @@ def _describe_input(item):
         entry["region_defaults"] = dict(item.region_defaults)
     if item.suggest:
         entry["suggest"] = item.suggest
+    if item.advanced:
+        entry["advanced"] = True
     return entry
 
 

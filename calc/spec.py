@@ -35,6 +35,7 @@ class Input:
     optional: bool = False  # blank is allowed and means "not given" (None)
     region_defaults: dict = field(default_factory=dict)
     suggest: str = ""  # a list of usual values the form offers ("voltages")
+    advanced: bool = False  # the form folds it under "More inputs"; it works the same
 
     def __post_init__(self):
         if self.kind not in INPUT_KINDS:

@@ -238,3 +238,19 @@ def test_service_worker_waits_for_the_user_and_cleans_old_caches(built_site):
     text = (built_site / paths.SERVICE_WORKER_FILE).read_text(encoding="utf-8")
     assert "SKIP_WAITING" in text  # the page's "reload with the new version" message
     assert re.search(r'revision:"[0-9a-f]+"', text)  # entries are revisioned
+
+
+def test_team_wide_settings_start_the_matching_fields():
+    config = team.parse({"voltage_drop": {"branch_pct": 2.0}, "conductor_temp_c": 90})
+    calculator = api.get("voltage-drop")
+    assert config.input_default("voltage-drop", calculator.input("max_drop_pct")) == 2.0
+    assert config.input_default("voltage-drop", calculator.input("conductor_temp_c")) == 90.0
+    html = forms.render_calculator("voltage-drop", config)
+    assert 'name="max_drop_pct" type="text" inputmode="decimal" enterkeyhint="done" ' in html
+    assert 'value="2"' in html and 'value="90"' in html
+
+
+def test_advanced_inputs_fold_under_more_inputs():
+    html = forms.render_calculator("voltage-drop", team.TeamConfig())
+    more = html.index('<details class="fb-more">')
+    assert html.index('name="length"') < more < html.index('name="sets"')
