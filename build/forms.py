@@ -154,7 +154,7 @@ def render_calculator(calculator_id, config, preset=None, index=0):
         '<div class="fb-result" aria-live="polite">'
         f'<dl class="fb-outputs">{outputs}</dl>'
         '<ul class="fb-checks"></ul>'
-        '<figure class="fb-chart" hidden><figcaption></figcaption><div class="fb-chart__plot"></div></figure>'
+        '<div class="fb-charts"></div>'
         + _section("steps", "Method", open_=True)
         + _section("assumptions", "Assumptions")
         + _section("sources", "Sources")

@@ -276,10 +276,12 @@ def _result_dict(calculator, result):
 
 
 def _require_finite(series):
-    """A chart with a NaN or infinity is refused rather than drawn wrong."""
+    """A chart with a NaN or infinity is refused rather than drawn wrong (one chart or a list)."""
     if series is None:
         return
-    for line in [series["x"]] + list(series["y"]):
-        for number in line["values"]:
-            if not math.isfinite(number):
-                raise CalcError(f"the chart {line['label']!r} could not be computed for these inputs")
+    for chart in series if isinstance(series, list) else [series]:
+        for line in [chart["x"]] + list(chart["y"]):
+            for number in line["values"]:
+                if not math.isfinite(number):
+                    raise CalcError(
+                        f"the chart {line['label']!r} could not be computed for these inputs")

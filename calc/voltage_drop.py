@@ -437,8 +437,24 @@ def _voltage_drop_view(inputs):
     result.output("current", run.current)
     result.output("drop_pct_approx", run.approx_drop_pct)
     _describe_run(result, inputs, size, length, z, run)
-    result.series = _drop_series(inputs, size, length, inputs["max_drop_pct"])
+    result.series = [_drop_series(inputs, size, length, inputs["max_drop_pct"]),
+                     _profile_series(inputs, size, length, z, run)]
     return result
+
+
+def _profile_series(inputs, size, length, z, run):
+    """Voltage along this run with its load at the far end (the current flows the whole way)."""
+    system, voltage, pf, sets, current, _, neutral = _setup(inputs)
+    distances = [length * k / 20 for k in range(21)]
+    volts = [solve_run(system, voltage, d, z.r_ac, z.x, pf, sets, current=current,
+                       neutral_current=neutral).end_v if d > 0 else voltage for d in distances]
+    floor = voltage * (1 - inputs["max_drop_pct"] / 100)
+    return {
+        "title": "Voltage along the run",
+        "x": {"label": "Distance from the source", "unit": "m", "values": distances},
+        "y": [{"label": "Voltage", "unit": "V", "values": volts}],
+        "marks": [{"axis": "y", "value": floor, "label": f"{inputs['max_drop_pct']:g} % below nominal"}],
+    }
 
 
 def _candidate_sizes(system, material):

@@ -1,4 +1,4 @@
-// Charts of a result's series with uPlot (the site's own copy). The series shape is
+// Charts of a result's series with uPlot (the site's own copy). Each chart's shape is
 // {title, x: {label, unit, values}, y: [{label, unit, values}], y_axis?: {label, unit},
 //  marks: [{axis, value, label}]}.
 import uPlot from "../vendor/uplot/uPlot.esm.js";
@@ -26,6 +26,8 @@ function marksPlugin(marks) {
         ctx.setLineDash([6, 4]);
         ctx.lineWidth = 2 * devicePixelRatio;
         ctx.font = `${12 * devicePixelRatio}px system-ui, sans-serif`;
+        ctx.textAlign = "left"; // uPlot leaves the axes' alignment set
+        ctx.textBaseline = "alphabetic";
         for (const mark of marks) {
           ctx.beginPath();
           if (mark.axis === "x") {
@@ -48,24 +50,41 @@ function marksPlugin(marks) {
   };
 }
 
-export function clearChart(figure) {
+function clearChart(figure) {
   if (figure.fbPlot) { figure.fbPlot.destroy(); figure.fbPlot = null; }
   if (figure.fbResize) { figure.fbResize.disconnect(); figure.fbResize = null; }
-  figure.hidden = true;
 }
 
-export function drawChart(figure, series) {
-  clearChart(figure);
-  figure.hidden = false;
+export function clearCharts(container) {
+  for (const figure of container.querySelectorAll(".fb-chart")) clearChart(figure);
+  container.replaceChildren();
+}
+
+// A result's `series` is one chart or a list of them; each gets its own figure.
+export function drawCharts(container, series) {
+  clearCharts(container);
+  if (!series) return;
+  for (const chart of Array.isArray(series) ? series : [series]) {
+    const figure = document.createElement("figure");
+    figure.className = "fb-chart";
+    const caption = document.createElement("figcaption");
+    const holder = document.createElement("div");
+    holder.className = "fb-chart__plot";
+    figure.append(caption, holder);
+    container.append(figure);
+    drawChart(figure, chart);
+  }
+}
+
+function drawChart(figure, series) {
   figure.querySelector("figcaption").textContent = series.title || "";
   const holder = figure.querySelector(".fb-chart__plot");
-  holder.replaceChildren();
   const axisColour = cssVar("--fb-ink");
   const width = Math.max(holder.clientWidth || figure.clientWidth || 320, 280);
   const options = {
     width,
     height: Math.round(Math.min(360, Math.max(220, width * 0.6))),
-    legend: { show: true },
+    legend: { show: true, live: false }, // a key, not a read-out: no "--" placeholders
     cursor: { drag: { x: false, y: false } },
     scales: { x: { time: false } },
     axes: [

@@ -1,5 +1,5 @@
 // Rendering a result into a calculator's panel. Everything is set as text, never as HTML.
-import { drawChart, clearChart } from "./charts.js";
+import { drawCharts, clearCharts } from "./charts.js";
 
 const STATUS_WORDS = { pass: "OK", warn: "Check", fail: "Not OK" };
 
@@ -53,8 +53,7 @@ export function renderResult(root, result) {
   fillList(root.querySelector(".fb-assumptions"), result.assumptions, textItem);
   fillList(root.querySelector(".fb-sources"), result.sources, textItem);
   fillList(root.querySelector(".fb-cautions"), result.cautions, textItem);
-  if (result.series) drawChart(root.querySelector(".fb-chart"), result.series);
-  else clearChart(root.querySelector(".fb-chart"));
+  drawCharts(root.querySelector(".fb-charts"), result.series);
   const organisation = document.querySelector('meta[name="fluxbook-organisation"]')?.content;
   const record = [`Fluxbook ${result.version}`, result.calculator];
   if (organisation) record.push(organisation);
@@ -71,7 +70,7 @@ export function clearResult(root) {
   for (const selector of [".fb-checks", ".fb-steps", ".fb-assumptions", ".fb-sources", ".fb-cautions"]) {
     root.querySelector(selector).replaceChildren();
   }
-  clearChart(root.querySelector(".fb-chart"));
+  clearCharts(root.querySelector(".fb-charts"));
   root.querySelector(".fb-record").textContent = "";
   root.querySelector(".fb-result").classList.add("fb-result--stale");
 }
