@@ -7,7 +7,7 @@ checking, output formatting and the guarantee of finite numbers live in one plac
 import json
 import math
 
-from calc import __version__, conductors, transformers, units, voltage_drop
+from calc import __version__, conductors, motor_start, transformers, units, voltage_drop
 from calc.errors import CalcError, InputError, InputErrors, UnitError
 
 # The registry: every calculator Fluxbook ships, in the order the site lists them.
@@ -17,6 +17,7 @@ _CALCULATORS = (
     voltage_drop.VOLTAGE_DROP,
     voltage_drop.WIRE_SIZE,
     voltage_drop.MAX_LENGTH,
+    motor_start.MOTOR_START_DIP,
 )
 
 REGISTRY = {calculator.id: calculator for calculator in _CALCULATORS}

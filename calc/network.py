@@ -1,6 +1,9 @@
 """Radial supply paths: a source, series elements (transformers, conductor runs) and nodes with
 loads; node voltages under load, element currents, and fault currents at every node.
 
+A path is a chain by default; an element may name the node it is fed from ("from"), which makes
+the path a radial tree (two runs from one transformer, say). Element k always ends at node k + 1.
+
 Per-unit on one base apparent power; each transformer starts a new voltage zone whose base is its
 rated secondary voltage. A path is plain data (a dict, as JSON holds it) so pages, share links and
 saved jobs can carry it; `path_from_dict` checks it and names the field of any mistake.
@@ -45,6 +48,7 @@ class Transformer:
     x_r: float = 5.0
     tap_pct: float = 0.0  # + raises the secondary voltage
     grounded_secondary: bool = True  # a wye secondary with its neutral grounded (Dyn)
+    parent: int | None = None  # the node it is fed from; None = the previous element's far end
 
 
 @dataclass
@@ -58,6 +62,7 @@ class Cable:
     conductor_temp_c: float = 75.0
     method: str = "table"
     neutral_size: object = None  # return conductor for line-to-neutral faults; None = same size
+    parent: int | None = None  # the node it is fed from; None = the previous element's far end
 
 
 @dataclass
@@ -78,6 +83,11 @@ class Path:
     @property
     def nodes(self):
         return len(self.elements) + 1
+
+    def parent(self, index):
+        """The node element `index` is fed from (its far end is node index + 1)."""
+        given = self.elements[index].parent
+        return index if given is None else given
 
 
 # ---- reading a path from data ----------------------------------------------------------------
@@ -134,6 +144,10 @@ def path_from_dict(data):
     for i, item in enumerate(data.get("elements") or []):
         where = f"elements[{i}]"
         kind = item.get("kind") if isinstance(item, dict) else None
+        parent = item.get("from", i) if isinstance(item, dict) else i
+        if not isinstance(parent, int) or isinstance(parent, bool) or not 0 <= parent <= i:
+            raise InputError(f"{where}.from", parent, f"{where}.from must be a node already on "
+                             f"the path, 0 to {i}: the path does not connect there")
         if kind == "transformer":
             elements.append(Transformer(
                 name=str(item.get("name", f"Transformer {i + 1}")),
@@ -144,6 +158,7 @@ def path_from_dict(data):
                 x_r=_number(item, "x_r", where, 5.0, low=0.05, high=100),
                 tap_pct=_number(item, "tap_pct", where, 0.0, low=-10, high=10),
                 grounded_secondary=bool(item.get("grounded_secondary", True)),
+                parent=parent,
             ))
         elif kind == "cable":
             try:
@@ -163,6 +178,7 @@ def path_from_dict(data):
                 raceway=_choice(item, "raceway", where, tuple(t for t, _ in conductors.RACEWAYS), "pvc"),
                 conductor_temp_c=_number(item, "conductor_temp_c", where, 75.0, low=-40, high=250),
                 method=_choice(item, "method", where, ("table", "physics"), "table"),
+                parent=parent,
             ))
         else:
             raise InputError(f"{where}.kind", kind, f"{where}.kind must be transformer or cable")
@@ -193,25 +209,26 @@ def _choice(data, key, where, allowed, default):
 
 def _check_voltages(path):
     """Each transformer's primary must be the zone voltage it is fed at (within ±15 %)."""
-    zone = path.source.voltage
+    bases = [path.source.voltage]
     for i, element in enumerate(path.elements):
+        zone = bases[path.parent(i)]
         if isinstance(element, Transformer):
             if not 0.85 <= zone / element.primary_v <= 1.15:
                 raise InputError(f"elements[{i}].primary_v", element.primary_v,
                                  f"the {element.name} primary is rated {element.primary_v:g} V but "
                                  f"is fed at {zone:g} V; the path does not connect")
             zone = element.secondary_v
+        bases.append(zone)
 
 
 # ---- per-unit model --------------------------------------------------------------------------
 
 def zone_voltages(path):
     """Base voltage of each node [V]: the source's, then each transformer's rated secondary."""
-    bases, zone = [path.source.voltage], path.source.voltage
-    for element in path.elements:
-        if isinstance(element, Transformer):
-            zone = element.secondary_v
-        bases.append(zone)
+    bases = [path.source.voltage]
+    for index, element in enumerate(path.elements):
+        parent_base = bases[path.parent(index)]
+        bases.append(element.secondary_v if isinstance(element, Transformer) else parent_base)
     return bases
 
 
@@ -296,6 +313,7 @@ def solve(path, source_voltage_pu=1.0):
     z_source = source_impedance(path)
     z_elements = [element_impedance(path, k) for k in range(len(path.elements))]
     ratios = [ratio(e) for e in path.elements]
+    parents = [path.parent(k) for k in range(len(path.elements))]
     voltages = [complex(source_voltage_pu)] * n
     for iteration in range(1, MAX_ITERATIONS + 1):
         injected = [0j] * n
@@ -303,20 +321,20 @@ def solve(path, source_voltage_pu=1.0):
             if abs(voltages[load.node]) < 0.05:
                 raise PathError("voltage collapse: the load cannot be supplied through this path")
             injected[load.node] += _load_current_pu(load, voltages[load.node])
-        # backward sweep: current into each node's downstream part (ideal ratio: I_primary = I t)
-        through = [0j] * (n + 1)
-        for k in range(n - 1, -1, -1):
-            downstream = through[k + 1] * (ratios[k] if k < n - 1 else 1.0)
-            through[k] = injected[k] + downstream
+        # backward sweep: each node's current includes everything fed from it; an element's
+        # primary-side current is its far end's times the ideal ratio (I₁ = t I₂)
+        through = list(injected)
+        for k in range(len(z_elements) - 1, -1, -1):
+            through[parents[k]] += ratios[k] * through[k + 1]
         # forward sweep from the source
         new = [0j] * n
         new[0] = source_voltage_pu - z_source * through[0]
         for k, z in enumerate(z_elements):
             current_k = through[k + 1] * ratios[k]  # current on the element's primary side
-            new[k + 1] = (new[k] - z * current_k) * ratios[k]
+            new[k + 1] = (new[parents[k]] - z * current_k) * ratios[k]
         change = max(abs(a - b) for a, b in zip(new, voltages))
         voltages = new
-        if any(not cmath.isfinite(v) for v in voltages) or abs(voltages[-1]) > 10:
+        if any(not cmath.isfinite(v) or abs(v) > 10 for v in voltages):
             break
         if change < TOLERANCE_PU:
             bases = zone_voltages(path)
@@ -366,21 +384,25 @@ def faults(path, voltage_factor=1.0, iec60909=False):
     """
     bases = zone_voltages(path)
     # IEC 60909 defines the source by its fault level at c: Z_Q = c U² / S_kQ.
-    z1 = source_impedance(path) * (voltage_factor if iec60909 else 1.0)
-    z0 = None if path.source.phases == 3 else 0j
+    z1_nodes = [source_impedance(path) * (voltage_factor if iec60909 else 1.0)]
+    z0_nodes = [None if path.source.phases == 3 else 0j]
     result = []
     for node in range(path.nodes):
         if node > 0:
-            element = path.elements[node - 1]
-            z_element = element_impedance(path, node - 1)
+            index = node - 1
+            element = path.elements[index]
+            z_element = element_impedance(path, index)
             if iec60909 and isinstance(element, Transformer):
                 z_element *= transformer_correction(element, voltage_factor)
-            z1 += z_element
+            z1_nodes.append(z1_nodes[path.parent(index)] + z_element)
+            z0 = z0_nodes[path.parent(index)]
             if isinstance(element, Transformer):
                 z0 = z_element if element.grounded_secondary else None
             elif z0 is not None:
                 phase, back = cable_ohms(path, element)
-                z0 += (phase + 3.0 * back) / _z_base(path, bases[node])
+                z0 = z0 + (phase + 3.0 * back) / _z_base(path, bases[node])
+            z0_nodes.append(z0)
+        z1, z0 = z1_nodes[node], z0_nodes[node]
         amps_base = BASE_VA / ((SQRT3 if path.source.phases == 3 else 1.0) * bases[node])
         if z1 == 0:  # the bus of an infinite source: no finite fault current to report
             result.append(Fault(node, None, None, None, None))

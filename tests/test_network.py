@@ -6,11 +6,13 @@ import warnings
 
 import pytest
 
-from calc import conductors, network
+from calc import network
 from calc.errors import InputError
 
 pp = pytest.importorskip("pandapower")
 import pandapower.shortcircuit as pp_sc  # noqa: E402
+
+from tests.pandapower_reference import pandapower_net as _pandapower  # noqa: E402
 
 
 def _path_data(rng, with_source=True):
@@ -36,38 +38,6 @@ def _path_data(rng, with_source=True):
     if with_source:
         data["source"].update(fault_mva=rng.uniform(50, 500), x_r=rng.uniform(5, 15))
     return data
-
-
-def _pandapower(path):
-    """The same path in pandapower: ext grid, a two-winding transformer, lines, loads."""
-    net = pp.create_empty_network(f_hz=path.source.frequency_hz)
-    bases = network.zone_voltages(path)
-    buses = [pp.create_bus(net, vn_kv=v / 1e3) for v in bases]
-    grid = {"vm_pu": 1.0}
-    if path.source.fault_va:
-        grid.update(s_sc_max_mva=path.source.fault_va / 1e6, rx_max=1 / path.source.x_r)
-    pp.create_ext_grid(net, buses[0], **grid)
-    for k, element in enumerate(path.elements):
-        if isinstance(element, network.Transformer):
-            vkr = element.z_pct * math.cos(math.atan(element.x_r))
-            pp.create_transformer_from_parameters(
-                net, buses[k], buses[k + 1], sn_mva=element.kva / 1e6,
-                vn_hv_kv=element.primary_v / 1e3, vn_lv_kv=element.secondary_v / 1e3,
-                vk_percent=element.z_pct, vkr_percent=vkr, pfe_kw=0, i0_percent=0)
-        else:
-            z = conductors.impedance(element.size, element.material, element.conductor_temp_c,
-                                     path.source.frequency_hz, element.raceway, None, element.method)
-            pp.create_line_from_parameters(
-                net, buses[k], buses[k + 1], length_km=element.length / 1e3,
-                r_ohm_per_km=z.r_ac * 1e3 / element.sets, x_ohm_per_km=z.x * 1e3 / element.sets,
-                c_nf_per_km=0, max_i_ka=100)
-    for load in path.loads:
-        p = load.apparent_va * load.power_factor / 1e6
-        q = load.apparent_va * math.sqrt(1 - load.power_factor ** 2) / 1e6
-        share = 100 if load.model == "impedance" else 0
-        pp.create_load(net, buses[load.node], p_mw=p, q_mvar=q,
-                       const_z_p_percent=share, const_z_q_percent=share)
-    return net
 
 
 def test_node_voltages_match_pandapower_power_flow():
@@ -101,6 +71,30 @@ def test_fault_currents_match_pandapower_iec_60909():
         for fault, row in zip(ours, net.res_bus_sc.itertuples()):
             assert fault.three_phase_a == pytest.approx(row.ikss_ka * 1e3, rel=1e-6)
             assert fault.peak_a == pytest.approx(row.ip_ka * 1e3, rel=1e-6)
+
+
+def test_a_tree_of_two_runs_from_one_transformer_matches_pandapower():
+    # Two runs fed from the transformer secondary (node 1): "from": 1 on the second run.
+    rng = random.Random(13)
+    for _ in range(8):
+        data = _path_data(rng, with_source=False)
+        data["elements"][2]["from"] = 1
+        data["loads"][1]["node"] = 3
+        path = network.path_from_dict(data)
+        ours = network.solve(path)
+        net = _pandapower(path)
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")
+            pp.runpp(net, tolerance_mva=1e-12, numba=False)
+        assert ours.voltages == pytest.approx(list(net.res_bus.vm_pu * network.zone_voltages(path)), rel=1e-7)
+        data["source"].update(fault_mva=300, x_r=8)
+        path = network.path_from_dict(data)
+        net = _pandapower(path)
+        with warnings.catch_warnings():
+            warnings.simplefilter("ignore")
+            pp_sc.calc_sc(net, case="max", ip=True, branch_results=False)
+        ours = network.faults(path, voltage_factor=1.1, iec60909=True)
+        assert [f.three_phase_a for f in ours] == pytest.approx(list(net.res_bus_sc.ikss_ka * 1e3), rel=1e-6)
 
 
 def test_fault_current_falls_along_the_path():
@@ -165,6 +159,7 @@ def test_voltage_collapse_is_an_error_not_a_number():
     (lambda d: d["loads"][0].update(model="magic"), "loads[0].model"),
     (lambda d: d["source"].update(voltage=-1), "source.voltage"),
     (lambda d: d["source"].update(phases=2), "source.phases"),
+    (lambda d: d["elements"][1].update({"from": 5}), "elements[1].from"),
 ])
 def test_bad_path_data_names_the_field(change, field):
     data = _path_data(random.Random(2))

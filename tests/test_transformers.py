@@ -127,7 +127,7 @@ def test_series_is_current_against_load_through_rated_point():
     ({"kva": 0}, "kva", "greater than 0 kVA"),
     ({"kva": "-75 kVA"}, "kva", "out of range"),
     ({"kva": "2000 MVA"}, "kva", "at most"),
-    ({"primary_v": 0}, "primary_v", "greater than 0 V"),
+    ({"primary_v": 0}, "primary_v", "at least 1 V"),  # 1e-308 V would overflow the current
     ({"secondary_v": "900 kV"}, "secondary_v", "at most 800000 V"),
     ({"primary_v": "75 kVA"}, "primary_v", "voltage"),
     ({"phases": "2"}, "phases", "choose one of"),
