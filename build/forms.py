@@ -40,6 +40,22 @@ def _quantity_control(item, field_id, described, value, datalist_id):
     )
 
 
+def _text_control(item, field_id, described, value):
+    """A free-text code with the calculator's common values offered (a datalist)."""
+    listed = ""
+    if item.suggestions:
+        options = "".join(f'<option value="{_attr(v)}"></option>' for v in item.suggestions)
+        listed = f' list="{field_id}-list"'
+        tail = f'<datalist id="{field_id}-list">{options}</datalist>'
+    else:
+        tail = ""
+    return (
+        f'<input id="{field_id}" name="{_attr(item.name)}" type="text" autocomplete="off" '
+        f'autocapitalize="characters" spellcheck="false" enterkeyhint="done" '
+        f'value="{_attr(value)}" aria-describedby="{described}"{listed}>{tail}'
+    )
+
+
 def _options(pairs, selected):
     return "".join(
         f'<option value="{_attr(token)}"{" selected" if token == selected else ""}>'
@@ -76,6 +92,8 @@ def _field(item, prefix, value, datalist_id):
     unit = f' <span class="fb-field__unit">{escape(item.unit)}</span>' if item.unit else ""
     if item.kind == "quantity":
         control = _quantity_control(item, field_id, described, value, datalist_id)
+    elif item.kind == "text":
+        control = _text_control(item, field_id, described, value)
     else:
         control = _select_control(item, field_id, described, value)
     help_text = escape(item.help) if item.help else ""

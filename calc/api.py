@@ -7,7 +7,7 @@ checking, output formatting and the guarantee of finite numbers live in one plac
 import json
 import math
 
-from calc import __version__, conductors, motor_start, transformers, units, voltage_drop
+from calc import __version__, conductors, motor_start, motors, transformers, units, voltage_drop
 from calc.errors import CalcError, InputError, InputErrors, UnitError
 
 # The registry: every calculator Fluxbook ships, in the order the site lists them.
@@ -18,6 +18,8 @@ _CALCULATORS = (
     voltage_drop.WIRE_SIZE,
     voltage_drop.MAX_LENGTH,
     motor_start.MOTOR_START_DIP,
+    motors.MOTOR_CURRENT,
+    motors.BACK_EMF,
 )
 
 REGISTRY = {calculator.id: calculator for calculator in _CALCULATORS}
@@ -78,6 +80,8 @@ def _describe_input(item):
         entry["max_exclusive"] = item.max_exclusive
     if item.kind == "choice":
         entry["choices"] = [{"value": token, "label": label} for token, label in item.choices]
+    if item.kind == "text" and item.suggestions:
+        entry["suggestions"] = list(item.suggestions)
     if item.kind == "size":
         entry["choices"] = [
             {"value": label, "label": label}
@@ -137,6 +141,16 @@ def _convert(item, raw):
             return units.parse_conductor_size(raw)
     except UnitError as error:
         raise InputError(item.name, raw, f"{error}") from None
+    if item.kind == "text":
+        text = str(raw).strip()
+        if len(text) > 80:
+            raise InputError(item.name, raw, f"at most 80 characters; {_allowed(item)}")
+        if item.check is not None:
+            try:
+                item.check(text)
+            except (InputError, UnitError) as error:
+                raise InputError(item.name, raw, getattr(error, "message", str(error))) from None
+        return text
     if item.kind == "choice":
         token = str(raw).strip() if not isinstance(raw, bool) else None
         if isinstance(raw, float) and raw.is_integer():
@@ -173,6 +187,8 @@ def _allowed(item):
         return "enter a conductor size such as 12 AWG, 4/0, 250 kcmil or 2.5 mm2"
     if item.kind == "flag":
         return "enter yes or no"
+    if item.kind == "text":
+        return item.help or "enter a code"
     unit_list = ", ".join(units.units_for(units.dimension_of(item.unit)))
     parts = []
     if item.minimum is not None:

@@ -4,22 +4,13 @@ shared node where other loads (the lights) hang, how long, whether it matters, a
 
 import math
 
-from calc import cautions, network, units
+from calc import cautions, motors, network, units
 from calc.errors import InputError
 from calc.spec import Calculator, Input, Output, Result
 from calc.units import format_quantity as fq
 
 SQRT3 = math.sqrt(3.0)
 HP_W = units.to_si(1, "hp")
-
-# NEMA MG 1 §10.37.2 locked-rotor kVA per hp by code letter (NEC Table 430.7(B)); read
-# (REFERENCE_VALUES 4a). Each range includes its lower figure up to, not including, the upper.
-CODE_LETTER_KVA_PER_HP = {
-    "A": (0.0, 3.15), "B": (3.15, 3.55), "C": (3.55, 4.0), "D": (4.0, 4.5), "E": (4.5, 5.0),
-    "F": (5.0, 5.6), "G": (5.6, 6.3), "H": (6.3, 7.1), "J": (7.1, 8.0), "K": (8.0, 9.0),
-    "L": (9.0, 10.0), "M": (10.0, 11.2), "N": (11.2, 12.5), "P": (12.5, 14.0), "R": (14.0, 16.0),
-    "S": (16.0, 18.0), "T": (18.0, 20.0), "U": (20.0, 22.4), "V": (22.4, 22.4),
-}
 
 # Starting methods: line current as a fraction of across-the-line locked-rotor current, and how
 # the starting motor looks to the supply. Ratios from REFERENCE_VALUES 4d (theory: wye-delta 1/3;
@@ -51,6 +42,13 @@ FLICKER_IRRITATION = ((1.0, 6.0), (10.0, 4.0), (60.0, 2.5), (600.0, 1.3))
 SIZE_STEP = 2  # how many sizes larger the "bigger shared conductor" remedy tries
 
 
+def letter_range(code_letter):
+    """(low, high) locked-rotor kVA per hp of a NEMA code letter; V has no upper figure, so its
+    lower one stands for both (NEMA MG 1 §10.37.2 via calc.motors.CODE_LETTERS)."""
+    low, high = motors.CODE_LETTERS[code_letter]
+    return low, low if high is None else high
+
+
 def locked_rotor_current(hp, voltage, code_letter, phases=3):
     """(low, high) locked-rotor current [A] from the NEMA code letter range.
 
@@ -61,9 +59,8 @@ def locked_rotor_current(hp, voltage, code_letter, phases=3):
     >>> [round(i) for i in locked_rotor_current(25, 480, "G")]
     [168, 189]
     """
-    low, high = CODE_LETTER_KVA_PER_HP[code_letter]
-    per_volt = SQRT3 * voltage if phases == 3 else voltage
-    return low * hp * 1e3 / per_volt, high * hp * 1e3 / per_volt
+    return tuple(motors.locked_rotor_current(kva_per_hp, hp * HP_W, voltage, phases)
+                 for kva_per_hp in letter_range(code_letter))
 
 
 def interpolate_log(points, x):
@@ -167,7 +164,7 @@ def _motor_start_view(inputs):
     if inputs["lra"] is None:
         result.step(f"Locked-rotor current from code letter {inputs['code_letter']} (top of its range, "
                     "the worst case)", "I_LR = kVA/hp × hp × 1000 / (√3 V)",
-                    f"= {CODE_LETTER_KVA_PER_HP[inputs['code_letter']][1]:g} × "
+                    f"= {letter_range(inputs['code_letter'])[1]:g} × "
                     f"{inputs['motor_power'] / HP_W:.3g} hp × 1000 / (√3 × {fq(nominal, 'V')}) = "
                     f"{fq(base['locked'], 'A')}")
     if base["held"] is None:
@@ -280,7 +277,9 @@ MOTOR_START_DIP = Calculator(
               min_exclusive=True, maximum=5000, region_defaults={"iec": "18.5 kW"},
               help="Nameplate output, hp or kW."),
         Input("code_letter", "NEMA code letter", "choice", default="G",
-              choices=tuple((k, f"{k} ({v[0]:g}–{v[1]:g} kVA/hp)") for k, v in CODE_LETTER_KVA_PER_HP.items())),
+              choices=tuple((k, f"{k} ({letter_range(k)[0]:g}–{letter_range(k)[1]:g} kVA/hp)"
+                             if motors.CODE_LETTERS[k][1] else f"{k} (22.4 kVA/hp and up)")
+                            for k in motors.CODE_LETTERS)),
         Input("lra", "Locked-rotor current (nameplate)", "quantity", unit="A", optional=True,
               minimum=0, min_exclusive=True, maximum=1e5,
               help="If known, it replaces the code letter (blank = use the letter)."),

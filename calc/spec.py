@@ -8,7 +8,8 @@ from typing import Callable
 #   choice:   one token from `choices`
 #   size:     a conductor size ("12 AWG", "4/0", "250 kcmil", "2.5 mm2")
 #   flag:     yes / no
-INPUT_KINDS = ("quantity", "choice", "size", "flag")
+#   text:     a short code read by the calculator's own `check` ("B16", "100 A 10x")
+INPUT_KINDS = ("quantity", "choice", "size", "flag", "text")
 
 CHECK_STATUSES = ("pass", "warn", "fail")
 
@@ -36,6 +37,8 @@ class Input:
     region_defaults: dict = field(default_factory=dict)
     suggest: str = ""  # a list of usual values the form offers ("voltages")
     advanced: bool = False  # the form folds it under "More inputs"; it works the same
+    check: Callable | None = None  # text: raises InputError (or UnitError) for a bad code
+    suggestions: tuple = ()  # text: common values the form offers
 
     def __post_init__(self):
         if self.kind not in INPUT_KINDS:
