@@ -70,12 +70,13 @@ def on_page_markdown(markdown, page, config, files):
 
 
 def _calculator_list(page):
-    depth = page.file.src_uri.count("/")
-    prefix = "../" * depth
-    lines = []
+    """The home page's list of calculators, by group, in registry order."""
+    prefix = "../" * page.file.src_uri.count("/")
+    groups = {}
     for entry in api.list_calculators():
-        lines.append(f"- [{entry['title']}]({prefix}calculators/{entry['id']}.md) — {entry['summary']}")
-    return "\n".join(lines)
+        groups.setdefault(entry["group"], []).append(
+            f"- [{entry['title']}]({prefix}calculators/{entry['id']}.md) — {entry['summary']}")
+    return "\n\n".join(f"### {group}\n\n" + "\n".join(lines) for group, lines in groups.items())
 
 
 def on_page_content(html, page, config, files):

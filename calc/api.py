@@ -12,14 +12,25 @@ from calc.errors import CalcError, InputError, InputErrors, UnitError
 
 # The registry: every calculator Fluxbook ships, in the order the site lists them.
 _CALCULATORS = (
-    transformers.CURRENTS,
+    # Conductors and voltage drop
     conductors.CONDUCTOR,
     voltage_drop.VOLTAGE_DROP,
     voltage_drop.WIRE_SIZE,
     voltage_drop.MAX_LENGTH,
-    motor_start.MOTOR_START_DIP,
+    # Transformers
+    transformers.CURRENTS,
+    transformers.SIZE,
+    transformers.FAULT_CURRENT,
+    transformers.REGULATION,
+    transformers.EFFICIENCY,
+    transformers.BUCK_BOOST,
+    transformers.SUPPLY_MISMATCH,
+    # Motors and the supply path
     motors.MOTOR_CURRENT,
+    motor_start.MOTOR_START_DIP,
     motors.BACK_EMF,
+    # Protection and shock safety
+    # Inductors, RLC and power-factor correction
 )
 
 REGISTRY = {calculator.id: calculator for calculator in _CALCULATORS}

@@ -370,12 +370,14 @@ def transformer_correction(transformer, voltage_factor):
     return 0.95 * voltage_factor / (1.0 + 0.6 * x_t)
 
 
-def faults(path, voltage_factor=1.0, iec60909=False):
+def faults(path, voltage_factor=1.0, iec60909=False, source_voltage_factor=None):
     """Bolted fault currents at every node (loads and motor contribution neglected).
 
     `voltage_factor` is IEC 60909's c (1.0 for a plain bolted-fault estimate; c_max 1.05 or 1.10
     LV and 1.10 MV for maximum currents, IEC 60909-0 Table 1, from memory). With `iec60909`,
-    each transformer's impedance is also multiplied by K_T (clause 6.3.3).
+    each transformer's impedance is also multiplied by K_T (clause 6.3.3), and the feeder is
+    Z_Q = c_Q U² / S''kQ with c_Q = `source_voltage_factor` (§6.2; the feeder's own c, 1.10
+    above 1 kV) or, when that is not given, c itself.
 
     Three-phase: I = c V / (√3 |Z_th|). Line-to-neutral, past a grounded-wye transformer
     secondary: I = 3 c V/√3 / |2 Z1 + Z0|, with Z0 the transformer's (delta-wye: Z0 = Z1 of the
@@ -383,8 +385,9 @@ def faults(path, voltage_factor=1.0, iec60909=False):
     method's Z_phase + Z_return. Before any transformer it is given only for a single-phase path.
     """
     bases = zone_voltages(path)
-    # IEC 60909 defines the source by its fault level at c: Z_Q = c U² / S_kQ.
-    z1_nodes = [source_impedance(path) * (voltage_factor if iec60909 else 1.0)]
+    # IEC 60909 defines the feeder by its fault level at its own c: Z_Q = c_Q U² / S''kQ.
+    c_q = voltage_factor if source_voltage_factor is None else source_voltage_factor
+    z1_nodes = [source_impedance(path) * (c_q if iec60909 else 1.0)]
     z0_nodes = [None if path.source.phases == 3 else 0j]
     result = []
     for node in range(path.nodes):
