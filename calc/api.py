@@ -7,7 +7,7 @@ checking, output formatting and the guarantee of finite numbers live in one plac
 import json
 import math
 
-from calc import __version__, conductors, motor_start, motors, transformers, units, voltage_drop
+from calc import __version__, conductors, line_loss, motor_start, motors, transformers, units, voltage_drop  # noqa: E501
 from calc.errors import CalcError, InputError, InputErrors, UnitError
 
 # The registry: every calculator Fluxbook ships, in the order the site lists them.
@@ -17,6 +17,7 @@ _CALCULATORS = (
     voltage_drop.VOLTAGE_DROP,
     voltage_drop.WIRE_SIZE,
     voltage_drop.MAX_LENGTH,
+    line_loss.LINE_LOSS,
     # Transformers
     transformers.CURRENTS,
     transformers.SIZE,
