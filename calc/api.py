@@ -7,7 +7,7 @@ checking, output formatting and the guarantee of finite numbers live in one plac
 import json
 import math
 
-from calc import __version__, conductors, line_loss, motor_start, motors, transformers, units, voltage_drop  # noqa: E501
+from calc import __version__, conductors, line_loss, motor_start, motors, protection, transformers, units, voltage_drop  # noqa: E501
 from calc.errors import CalcError, InputError, InputErrors, UnitError
 
 # The registry: every calculator Fluxbook ships, in the order the site lists them.
@@ -31,6 +31,9 @@ _CALCULATORS = (
     motor_start.MOTOR_START_DIP,
     motors.BACK_EMF,
     # Protection and shock safety
+    protection.FAULT_CURRENT,
+    protection.GROUND_FAULT_TRIP,
+    protection.GFCI_CHECK,
     # Inductors, RLC and power-factor correction
 )
 

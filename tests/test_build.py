@@ -254,3 +254,9 @@ def test_advanced_inputs_fold_under_more_inputs():
     html = forms.render_calculator("voltage-drop", team.TeamConfig())
     more = html.index('<details class="fb-more">')
     assert html.index('name="length"') < more < html.index('name="sets"')
+
+
+def test_text_inputs_offer_their_suggestions():
+    html = forms.render_calculator("ground-fault-trip", team.parse({"region": "iec"}))
+    assert 'name="breaker" type="text"' in html and 'value="B20"' in html
+    assert '<option value="C32"></option>' in html

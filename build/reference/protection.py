@@ -1,0 +1,188 @@
+"""Reference: breaker trip bands, disconnection times, longest runs for the TN check, GFCI and RCD
+trip times and interrupting-rating test conditions, computed at build time from calc.protection."""
+
+import numpy as np
+
+from build.reference import GENERATED_NOTE, markdown_table
+from calc import protection, units
+
+# Longest-run tables: the circuits a technician meets most, each region's usual U0 and a typical
+# Ze at the board (TN-C-S 0.35 Ω is a common supplier's declared maximum in IEC countries, from
+# memory; 0.15 Ω is an invented North American panel fed from a nearby transformer).
+LONGEST_RUN_CIRCUITS = {
+    "iec": {"voltage": 230.0, "ze": 0.35, "temperature_c": 70.0, "frequency_hz": 50.0,
+            "note": "230 V, Ze 0.35 Ω, copper at 70 °C (PVC), 50 Hz",
+            "cables": (("1.5 mm²", "1 mm²"), ("1.5 mm²", "1.5 mm²"), ("2.5 mm²", "1.5 mm²"),
+                       ("4 mm²", "1.5 mm²"), ("4 mm²", "2.5 mm²"), ("6 mm²", "2.5 mm²"),
+                       ("10 mm²", "4 mm²"), ("16 mm²", "6 mm²")),
+            "breakers": ("B6", "B10", "B16", "B20", "B32", "C10", "C16", "C20", "C32", "D16")},
+    "na": {"voltage": 120.0, "ze": 0.15, "temperature_c": 75.0, "frequency_hz": 60.0,
+           "note": "120 V, Ze 0.15 Ω, copper at 75 °C, 60 Hz; moulded-case instantaneous "
+                   "10 × In + 20 % tolerance",
+           "cables": (("14 AWG", "14 AWG"), ("12 AWG", "12 AWG"), ("10 AWG", "10 AWG"),
+                      ("8 AWG", "10 AWG"), ("6 AWG", "10 AWG")),
+           "breakers": ("15 A 10x", "20 A 10x", "30 A 10x", "40 A 10x", "50 A 10x", "60 A 10x")},
+}
+MCCB_TABLE_RATINGS_A = (15, 20, 25, 30, 40, 50, 60, 70, 100, 125, 150, 200, 225, 400)
+MCCB_TABLE_VOLTAGES_V = (120.0, 277.0)
+MCB_TABLE_VOLTAGE_V = 230.0
+UL943_TABLE_MA = (6, 8, 10, 15, 20, 30, 50, 75, 100, 150, 200, 264)
+BAND_USES = {"B": "resistive loads, lighting, long final circuits",
+             "C": "motors, fluorescent and LED drivers, small transformers",
+             "D": "large inrush: transformers, welders, X-ray"}  # common practice
+
+
+def longest_run_grid(region):
+    """Array [cable, breaker] of the longest run [m] that passes Zs × Ia ≤ U0, by calc's own
+    loop_impedance_per_metre and max_length."""
+    circuit = LONGEST_RUN_CIRCUITS[region]
+    rows = []
+    for line, cpc in circuit["cables"]:
+        z = protection.loop_impedance_per_metre(
+            units.parse_conductor_size(line), units.parse_conductor_size(cpc), "cu",
+            circuit["temperature_c"], circuit["frequency_hz"])
+        currents = [protection.operating_current(protection.parse_breaker(b))
+                    for b in circuit["breakers"]]
+        rows.append([protection.max_length(circuit["voltage"], circuit["ze"], z, ia)
+                     for ia in currents])
+    return np.array(rows)
+
+
+def ul943_times():
+    """UL 943 greatest trip times [s] at UL943_TABLE_MA (numpy, the calculator's formula)."""
+    return protection.gfci_time_limit(np.asarray(UL943_TABLE_MA, dtype=float) * 1e-3)
+
+
+def _metres(value, region):
+    if region == "na":
+        return f"{value / 0.3048:.0f} ft" if value > 0 else "none"
+    return f"{value:.0f} m" if value > 0 else "none"
+
+
+def _longest_run_table(region):
+    circuit = LONGEST_RUN_CIRCUITS[region]
+    grid = longest_run_grid(region)
+    rows = [[f"{line} / {cpc}", *[_metres(v, region) for v in row]]
+            for (line, cpc), row in zip(circuit["cables"], grid)]
+    return (f"### {circuit['note']}\n\n"
+            + markdown_table(["Line / protective conductor", *circuit["breakers"]], rows))
+
+
+def _band_table():
+    rows = [[letter, f"{low:g} × In", f"{high:g} × In", BAND_USES[letter]]
+            for letter, (low, high) in protection.MCB_INSTANTANEOUS_BANDS.items()]
+    return markdown_table(["Type", "Does not trip within 0.1 s at", "Trips within 0.1 s by",
+                           "Usual for (common practice)"], rows, "lrrl")
+
+
+def _mcb_zs_table():
+    rows = []
+    for rating in protection.MCB_PREFERRED_RATINGS_A:
+        cells = [f"{rating} A"]
+        for letter in protection.MCB_INSTANTANEOUS_BANDS:
+            ia = protection.operating_current(protection.parse_breaker(f"{letter}{rating}"))
+            cells += [f"{ia:g} A", f"{MCB_TABLE_VOLTAGE_V / ia:.3g} Ω"]
+        rows.append(cells)
+    header = ["In"] + [f"{label} {letter}" for letter in protection.MCB_INSTANTANEOUS_BANDS
+                       for label in ("Ia", "Zs max")]
+    return markdown_table(header, rows)
+
+
+def _mccb_zs_table():
+    rows = []
+    for rating in MCCB_TABLE_RATINGS_A:
+        ia = protection.operating_current(protection.parse_breaker(f"{rating} A 10x"))
+        limits = [f"{v / ia:.3g} Ω" for v in MCCB_TABLE_VOLTAGES_V]
+        rows.append([f"{rating} A", f"{ia:g} A", *limits])
+    return markdown_table(["Rating", "Ia (10 × In + 20 %)",
+                           *[f"Zs max at U0 = {v:g} V" for v in MCCB_TABLE_VOLTAGES_V]], rows)
+
+
+def _disconnection_table():
+    rows, low = [], protection.TABLE_41_1_LOWEST_U0_V
+    for highest, tn, tt in protection.TABLE_41_1_S:
+        band = f"{low:g} V < U0 ≤ {highest:g} V" if highest else f"U0 > {low:g} V"
+        rows.append([band, f"{tn:g} s", f"{tt:g} s"])
+        low = highest
+    rows.append(["Distribution circuits (any U0)", f"{protection.DISTRIBUTION_TIME_S['tn']:g} s",
+                 f"{protection.DISTRIBUTION_TIME_S['tt']:g} s"])
+    return markdown_table(["U0 (AC)", "TN", "TT"], rows, "lrr")
+
+
+def _ul943_table():
+    rows = [[f"{ma:g} mA", f"{t:.3g} s"] for ma, t in zip(UL943_TABLE_MA, ul943_times())]
+    return markdown_table(["Ground-fault current", "Greatest trip time"], rows)
+
+
+def _rcd_table():
+    rows = []
+    for device, name in (("rcd", "General type"), ("rcd-s", "Type S (time-delayed)")):
+        cells = [name]
+        for multiple, (least, greatest) in protection.RCD_BREAK_TIMES_S[device].items():
+            span = f"{least * 1e3:g}–{greatest * 1e3:g} ms" if least else f"≤ {greatest * 1e3:g} ms"
+            cells.append(span)
+        rows.append(cells)
+    return markdown_table(["RCD", "at IΔn", "at 2 IΔn", "at 5 IΔn"], rows, "lrrr")
+
+
+def _interrupting_table():
+    rows, low = [], 0.0
+    for highest, power_factor in protection.UL489_TEST_POWER_FACTOR:
+        band = f"{low / 1e3:g} to {highest / 1e3:g} kA" if highest else f"above {low / 1e3:g} kA"
+        x_r = protection.rating_test_x_r(highest if highest else low * 2)
+        rows.append([band, f"{power_factor:.2f}", f"{x_r:.3g}"])
+        low = highest or low
+    return markdown_table(["Interrupting rating", "Test power factor (highest)", "X/R up to"],
+                          rows, "lrr")
+
+
+def protection_page(team_config):
+    region = team_config.region
+    other = "iec" if region == "na" else "na"
+    mcb = ["## MCBs: Ia and the largest Zs at U0 = 230 V",
+           "Ia is the upper band limit × In; the TN condition Zs × Ia ≤ U0 (IEC 60364-4-41 "
+           "411.4.4) gives Zs max = U0 / Ia. The instantaneous trip opens within 0.1 s, so "
+           "these values serve the 0.4 s of Table 41.1 and the 5 s of distribution circuits "
+           "alike (a maker's curve may allow more at 5 s).", _mcb_zs_table()]
+    mccb = ["## Moulded-case breakers: Ia and the largest Zs",
+            "Instantaneous setting 10 × In with the usual ± 20 % pickup tolerance (common "
+            "practice, from memory): Ia = 12 × In. Use the maker's setting and tolerance where "
+            "known; adjustable trips differ.", _mccb_zs_table()]
+    parts = ["# Protection reference", GENERATED_NOTE,
+             "Trip bands, disconnection times, the longest run a breaker still protects, GFCI "
+             "and RCD trip times, and the test conditions behind interrupting ratings. A "
+             "calculated trip is not a test: verify with a loop-impedance tester and an RCD / "
+             "GFCI tester as your local rules require; breaker curves vary by maker.",
+             "## MCB instantaneous trip bands (IEC 60898-1)", _band_table(),
+             "Source: IEC 60898-1 (bands read; the 0.1 s test rule from memory). Preferred "
+             f"ratings: {', '.join(str(r) for r in protection.MCB_PREFERRED_RATINGS_A)} A "
+             "(read)."]
+    parts += (mccb + mcb) if region == "na" else (mcb + mccb)
+    parts += ["## Maximum disconnection times (IEC 60364-4-41 Table 41.1)",
+              _disconnection_table(),
+              "Final circuits up to 32 A (411.3.2.2, 2005 edition; AMD1:2017 and BS 7671:2018 "
+              "extend it to 63 A socket-outlet circuits). Distribution circuits: 5 s in TN "
+              "(411.3.2.3, read), 1 s in TT (411.3.2.4, from memory). TN condition Zs × Ia ≤ U0; "
+              "TT condition R_A × IΔn ≤ 50 V (411.5.3). Source: IEC 60364-4-41 (read as "
+              "quoted).",
+              "## Longest run for the TN check",
+              "Where Zs = Ze + (R1 + R2) × L reaches U0 / Ia; R1 + R2 from IEC 60228 / NEC "
+              "Chapter 9 Table 8 at the stated temperature, reactance included. \"none\" means "
+              "Ze alone is too high for that breaker.",
+              _longest_run_table(region), _longest_run_table(other).replace("### ", "### Also: "),
+              "## GFCI trip time (UL 943, Class A)",
+              "Trips at 6 mA and above, never below 4 mA; greatest trip time T = (20 / I)^1.43 s "
+              "with I in mA, for 6 to 264 mA. Source: UL 943 (read as quoted).", _ul943_table(),
+              "## RCD break times (IEC 61008-1 / IEC 61009-1)", _rcd_table(),
+              "An RCD must not trip at 50 % of IΔn. 30 mA devices give additional protection "
+              "(IEC 60364-4-41 415.1.1). Type S are made for IΔn above 30 mA. Source: IEC "
+              "61008-1 / 61009-1 (from memory).",
+              "## Interrupting ratings: the X/R of the test",
+              "A UL 489 interrupting rating holds up to the X/R of its test circuit (from "
+              "memory). Where the available fault current has a higher X/R (close to large "
+              "transformers), the effective rating is lower: apply the maker's multiplying "
+              "factor. IEC 60947-2 uses similar test power factors.", _interrupting_table()]
+    return "\n\n".join(parts) + "\n"
+
+
+PAGES = {"reference/protection.md": protection_page}

@@ -1,0 +1,600 @@
+"""calc.protection: fault-current against pandapower's IEC 60909, ground-fault-trip against
+IEC 60898-1 / IEC 60364-4-41 and hand computations from published tables, gfci-check against
+UL 943 and IEC 61008-1; properties and one test per error path."""
+
+import doctest
+import math
+import random
+import warnings
+
+import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
+
+from calc import api, network, protection, units
+
+pp = pytest.importorskip("pandapower")
+import pandapower.shortcircuit as pp_sc  # noqa: E402
+
+from tests.pandapower_reference import pandapower_net  # noqa: E402
+
+
+def test_docstring_examples():
+    assert doctest.testmod(protection).failed == 0
+
+
+def run(calculator, **inputs):
+    result = api.run(calculator, inputs)
+    assert result["ok"], result
+    return result
+
+
+def values(calculator, **inputs):
+    return {name: out["value"] for name, out in run(calculator, **inputs)["outputs"].items()}
+
+
+def checks(result):
+    return {check["name"]: check["status"] for check in result["checks"]}
+
+
+def error_fields(calculator, **inputs):
+    result = api.run(calculator, inputs)
+    assert result["ok"] is False, result
+    for error in result["errors"]:
+        assert error["message"]
+    return [error["field"] for error in result["errors"]]
+
+
+# ---- fault-current: the independent reference ---------------------------------------------
+
+def _random_fault_inputs(rng):
+    """A random LV path with a finite source (pandapower's ext grid needs one)."""
+    material = rng.choice(["cu", "al"])
+    feeder = rng.choice(["4/0", "250 kcmil", "500 kcmil", "95 mm2", "185 mm2"])
+    branch = rng.choice(["6 AWG", "2 AWG", "1/0", "16 mm2", "35 mm2"] if material == "al" else
+                        ["12 AWG", "8 AWG", "2 AWG", "4 mm2", "16 mm2"])
+    return {
+        "xfmr_kva": rng.choice([150, 300, 500, 750, 1000, 1500, 2500]),
+        "secondary_v": rng.choice([208, 400, 480, 600]),
+        "xfmr_z_pct": rng.uniform(2.5, 7.5), "xfmr_x_r": rng.uniform(2, 10),
+        "source_v": rng.choice([4160, 11000, 12470, 13800]),
+        "source_mva": rng.uniform(30, 1000), "source_x_r": rng.uniform(3, 15),
+        "feeder_size": feeder, "feeder_length": rng.uniform(5, 150),
+        "feeder_sets": rng.choice([1, 2, 3]), "branch_size": branch,
+        "branch_length": rng.uniform(2, 60), "material": material,
+        "raceway": rng.choice(["pvc", "steel", "none"]), "frequency_hz": rng.choice([50, 60]),
+    }
+
+
+def _pandapower_faults(raw, lv_tol_percent):
+    """pandapower calc_sc(case="max") three-phase and single-phase results on the same path.
+
+    Zero sequence as the path engine models it (REFERENCE: IEC 60909-0 §4.2.1.3, from memory):
+    Dyn transformer with Z0 = Z1, each run's Z0 = Z_phase + 3 Z_neutral = 4 Z_phase (neutral of
+    the phase size). The MV feeder's zero sequence is blocked by the delta winding.
+    """
+    inputs = api.validate(api.get("fault-current"), raw)
+    net = pandapower_net(network.path_from_dict(protection._path_data(inputs)))
+    net.ext_grid["x0x_max"], net.ext_grid["r0x0_max"] = 1.0, 0.1
+    net.trafo["vector_group"] = "Dyn"
+    net.trafo["vk0_percent"] = net.trafo.vk_percent
+    net.trafo["vkr0_percent"] = net.trafo.vkr_percent
+    net.trafo["mag0_percent"], net.trafo["mag0_rx"], net.trafo["si0_hv_partial"] = 100, 0, 0.9
+    net.line["r0_ohm_per_km"] = 4 * net.line.r_ohm_per_km
+    net.line["x0_ohm_per_km"] = 4 * net.line.x_ohm_per_km
+    net.line["c0_nf_per_km"] = 0
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")
+        pp_sc.calc_sc(net, case="max", ip=True, branch_results=False, lv_tol_percent=lv_tol_percent)
+        three = net.res_bus_sc.copy()
+        pp_sc.calc_sc(net, case="max", fault="1ph", branch_results=False,
+                      lv_tol_percent=lv_tol_percent)
+        single = net.res_bus_sc.copy()
+    return three, single
+
+
+@pytest.mark.parametrize("voltage_factor, lv_tol_percent", [("1.1", 10), ("1.05", 6)])
+def test_fault_current_matches_pandapower_iec_60909(voltage_factor, lv_tol_percent):
+    # pandapower's IEC 60909 calc_sc(case="max"): c = 1.10 (lv_tol_percent 10) or 1.05 (6) at
+    # LV, c_Q = 1.10 for the MV feeder, K_T on the transformer, κ for a radial network. The same
+    # model, so initial symmetrical, peak and line-to-neutral currents agree to float rounding
+    # (1e-9; measured worst 1e-15).
+    rng = random.Random(70 + lv_tol_percent)
+    for _ in range(10):
+        raw = dict(_random_fault_inputs(rng), voltage_factor=voltage_factor)
+        ours = values("fault-current", **raw)
+        three, single = _pandapower_faults(raw, lv_tol_percent)
+        for name, node in (("main", 1), ("panel", 2), ("equipment", 3)):
+            assert ours[f"{name}_fault_a"] == pytest.approx(three.ikss_ka[node] * 1e3, rel=1e-9)
+            assert ours[f"{name}_peak_a"] == pytest.approx(three.ip_ka[node] * 1e3, rel=1e-9)
+            assert ours[f"{name}_ln_a"] == pytest.approx(single.ikss_ka[node] * 1e3, rel=1e-9)
+
+
+# ---- fault-current: published and hand-worked values ----------------------------------------
+
+SHORT_RUNS = {"feeder_length": "1 mm", "branch_length": "1 mm"}
+
+
+def test_infinite_bus_transformer_secondary_published():
+    # IAEI Magazine, J. Phillips, "Short-circuit calculations using transformer and source
+    # impedance" (2018): 1500 kVA, 480 V, 5.75 %, infinite bus -> 31 374 A. The article rounds
+    # I_FL to 1804 A, hence 2e-4.
+    out = values("fault-current", xfmr_kva=1500, secondary_v=480, xfmr_z_pct=5.75)
+    assert out["main_fault_a"] == pytest.approx(31374, rel=2e-4)
+    # delta-wye, infinite source: the line-to-neutral fault equals the three-phase one
+    # (Z0 = Z1 of the transformer; IEC 60909-0 §4.2.1.3 with Z_Q = 0, computed)
+    assert out["main_ln_a"] == pytest.approx(out["main_fault_a"], rel=1e-12)
+
+
+def test_finite_source_mva_method_published():
+    # Worked MVA-method example (textbook solution quoted at holooly.com/?p=1193422): 1000 kVA
+    # 13.8 kV-208Y/120 V, 5 %, utility 15 kA -> MVA_U = 358.52, MVA_T = 20, I = 52 583 A. Equal
+    # X/R (6) makes the phasor sum the arithmetic one; the source rounds MVA to 4 figures.
+    out = values("fault-current", xfmr_kva=1000, secondary_v=208, xfmr_z_pct=5, xfmr_x_r=6,
+                 source_v="13.8 kV", source_fault_a="15 kA", source_x_r=6)
+    assert out["main_fault_a"] == pytest.approx(52583, rel=2e-4)
+
+
+def test_iec_60909_transformer_correction_by_hand():
+    # IEC 60909-0 (from memory) by hand: 630 kVA 400 V 4 % X/R 3, infinite source, c = 1.05:
+    # I_FL = 909.327 A; x_T = 0.04 × 3/√10 = 0.037947; K_T = 0.95 × 1.05/(1 + 0.6 x_T) =
+    # 0.975294; I''k = 1.05 × 909.327/(0.04 × 0.975294) = 24 474.5 A; κ = 1.02 + 0.98 e^-1 =
+    # 1.38052; i_p = κ √2 I''k = 47 782.8 A. Six figures by hand, hence 1e-5.
+    out = values("fault-current", xfmr_kva=630, secondary_v=400, xfmr_z_pct=4, xfmr_x_r=3,
+                 source_v="11 kV", voltage_factor="1.05")
+    assert out["main_fault_a"] == pytest.approx(24474.5, rel=1e-5)
+    assert out["main_peak_a"] == pytest.approx(47782.8, rel=1e-5)
+    assert out["main_x_r"] == pytest.approx(3.0, rel=1e-12)
+
+
+def test_run_impedance_by_hand_from_nec_tables():
+    # 1000 kVA 480 V 5.75 % X/R 6 on an infinite bus, then 100 ft of 4/0 Cu in PVC conduit:
+    # NEC Chapter 9 Table 8 (read) 0.0608 Ω/kft at 75 °C -> 20 °C by note 2 (α75 = 0.00323):
+    # 0.0608 × (1 − 0.00323 × 55) = 0.04999 Ω/kft; NEC Table 9 XL 0.041 Ω/kft (from memory).
+    # The calculator adds IEC 60287 skin and proximity effect (about 1 % for 4/0 at 60 Hz),
+    # hence 1 % on a current that the run lowers by about 30 %.
+    z_base = 480 ** 2 / 1000e3
+    z_t = 0.0575 * z_base * complex(math.cos(math.atan(6)), math.sin(math.atan(6)))
+    z_run = complex(0.0608 * (1 - 0.00323 * 55), 0.041) * 0.1
+    expected = 480 / (math.sqrt(3) * abs(z_t + z_run))
+    out = values("fault-current", xfmr_kva=1000, secondary_v=480, xfmr_z_pct=5.75, xfmr_x_r=6,
+                 feeder_size="4/0", feeder_length="100 ft")
+    assert out["panel_fault_a"] == pytest.approx(expected, rel=0.01)
+
+
+def test_short_runs_leave_the_current_of_the_transformer_secondary():
+    # Limiting case: 1 mm runs change the impedance by micro-ohms against ~20 mΩ.
+    out = values("fault-current", **SHORT_RUNS)
+    assert out["panel_fault_a"] == pytest.approx(out["main_fault_a"], rel=1e-3)
+    assert out["equipment_fault_a"] == pytest.approx(out["main_fault_a"], rel=1e-3)
+
+
+def test_ungrounded_secondary_has_no_line_to_neutral_figure():
+    out = values("fault-current", grounded_wye="no")
+    assert "main_ln_a" not in out and "equipment_ln_a" not in out and "main_fault_a" in out
+
+
+# ---- fault-current: properties ------------------------------------------------------------
+
+PATHS = st.builds(
+    lambda kva, z, x_r, mva, feeder, lf, branch, lb: {
+        "xfmr_kva": kva, "xfmr_z_pct": z, "xfmr_x_r": x_r, "source_mva": mva,
+        "feeder_size": feeder, "feeder_length": lf, "branch_size": branch, "branch_length": lb},
+    st.sampled_from([45, 150, 500, 1500, 3000]), st.floats(1.5, 12), st.floats(0.5, 15),
+    st.one_of(st.none(), st.floats(5, 2000)),
+    st.sampled_from(["1/0", "4/0", "500 kcmil", "70 mm2"]),
+    st.floats(0.5, 500), st.sampled_from(["14 AWG", "10 AWG", "4 AWG", "2.5 mm2"]),
+    st.floats(0.5, 300))
+
+
+@settings(max_examples=60, deadline=None)
+@given(PATHS, st.sampled_from(["1", "1.05", "1.1"]))
+def test_fault_current_falls_along_the_path(path, c):
+    out = values("fault-current", **path, voltage_factor=c)
+    for kind in ("fault_a", "ln_a", "peak_a"):
+        along = [out[f"{node}_{kind}"] for node in ("main", "panel", "equipment")]
+        assert along == sorted(along, reverse=True), kind
+
+
+@settings(max_examples=40, deadline=None)
+@given(PATHS)
+def test_infinite_source_and_iec_maximum_are_upper_bounds(path):
+    plain = values("fault-current", **path)
+    infinite = values("fault-current", **dict(path, source_mva=None))
+    iec = values("fault-current", **path, voltage_factor="1.1")
+    for node in ("main", "panel", "equipment"):  # 1e-12: float rounding where they are equal
+        assert infinite[f"{node}_fault_a"] >= plain[f"{node}_fault_a"] * (1 - 1e-12)
+        # c = 1.1 with K_T ≤ 0.95 × 1.1 and c_Q = 1.1: |Z| grows by at most 1.1 (computed)
+        assert iec[f"{node}_fault_a"] >= plain[f"{node}_fault_a"] * (1 - 1e-12)
+
+
+def test_longer_feeder_lowers_the_panel_current():
+    currents = [values("fault-current", feeder_length=f"{ft} ft")["panel_fault_a"]
+                for ft in (10, 50, 200, 800)]
+    assert currents == sorted(currents, reverse=True)
+
+
+def test_chart_follows_the_path_from_the_secondary_to_the_equipment():
+    result = run("fault-current", main_rating="22 kA")
+    chart, out = result["series"], result["outputs"]
+    three = chart["y"][0]["values"]  # the chart sums 12 pieces of each run: rounding, 1e-9
+    assert three[0] == pytest.approx(out["main_fault_a"]["value"] / 1e3, rel=1e-12)
+    panel = out["panel_fault_a"]["value"] / 1e3
+    assert three[protection.CHART_SEGMENTS] == pytest.approx(panel, rel=1e-9)
+    assert three[-1] == pytest.approx(out["equipment_fault_a"]["value"] / 1e3, rel=1e-9)
+    assert chart["x"]["values"][-1] == pytest.approx((120 + 50) * 0.3048, rel=1e-12)
+    assert {"axis": "y", "value": 22.0, "label": "Main rating"} in chart["marks"]
+
+
+# ---- fault-current: ratings ---------------------------------------------------------------
+
+def test_interrupting_rating_fails_when_the_available_current_exceeds_it():
+    # Default path: 15.7 kA at the secondary (IEEE 141 method, I_FL × 100/%Z = 902 × 100/5.75).
+    result = run("fault-current", main_rating="10 kA", panel_rating="65 kA",
+                 equipment_rating="10 kA")
+    status = checks(result)
+    assert status["main_rating"] == "fail" and status["panel_rating"] == "pass"
+    assert status["equipment_rating"] == "pass"  # 5.8 kA at the end of 50 ft of 8 AWG
+
+
+def test_line_to_neutral_duty_is_used_where_it_is_larger():
+    # A finite supply: its impedance is in Z1 but not in the Dyn transformer's Z0, so at the
+    # secondary I''k1 = 3 U/√3 / |2 Z1 + Z0| > I''k3 (IEC 60909-0 §4.2.1.3, from memory).
+    result = run("fault-current", source_mva=100, main_rating=15.9)
+    out = result["outputs"]
+    assert out["main_ln_a"]["value"] > out["main_fault_a"]["value"]
+    message = next(c["message"] for c in result["checks"] if c["name"] == "main_rating")
+    assert "line-to-neutral" in message
+
+
+def test_x_r_above_the_ul_489_test_circuit_warns():
+    # UL 489 test power factor above 20 kA: 0.15–0.20 (from memory) -> X/R ≤ √(1/0.2² − 1) =
+    # 4.899 (computed). The 750 kVA secondary has X/R 6.
+    assert protection.rating_test_x_r(22e3) == pytest.approx(math.sqrt(24), rel=1e-12)
+    assert protection.rating_test_x_r(10e3) == pytest.approx(math.sqrt(3), rel=1e-12)
+    status = checks(run("fault-current", main_rating="22 kA"))
+    assert status["main_rating"] == "pass" and status["main_x_r"] == "warn"
+    assert "main_x_r" not in checks(run("fault-current", main_rating="22 kA", xfmr_x_r=4))
+
+
+def test_low_voltage_factor_on_a_medium_voltage_secondary_warns():
+    status = checks(run("fault-current", secondary_v="4160 V", voltage_factor="1.05",
+                        source_v="13.8 kV", feeder_size="1/0", branch_size="6 AWG"))
+    assert status["voltage_factor"] == "warn"
+
+
+@pytest.mark.parametrize("inputs, field", [
+    ({"source_mva": 500, "source_fault_a": "20 kA"}, "source_fault_a"),
+    ({"feeder_sets": 1.5}, "feeder_sets"),
+    ({"feeder_size": "3.3 mm2"}, "feeder_size"),
+    ({"material": "al", "branch_size": "2.5 mm2"}, "branch_size"),
+    ({"material": "al", "feeder_size": "18 AWG"}, "feeder_size"),
+    ({"voltage_factor": "1.2"}, "voltage_factor"),
+    ({"xfmr_z_pct": 0}, "xfmr_z_pct"),
+    ({"feeder_length": 0}, "feeder_length"),
+    ({"main_rating": "-5 kA"}, "main_rating"),
+])
+def test_fault_current_bad_input_names_the_field(inputs, field):
+    assert error_fields("fault-current", **inputs) == [field]
+
+
+# ---- ground-fault-trip: published values ----------------------------------------------------
+
+IEC_CIRCUIT = {"voltage": 230, "ze": 0.35, "size": "2.5 mm2", "cpc_size": "1.5 mm2",
+               "material": "cu", "conductor_temp_c": 70, "frequency_hz": 50, "circuit": "final"}
+
+
+@pytest.mark.parametrize("code, ia", [("B32", 160), ("C32", 320), ("D32", 640), ("B6", 30),
+                                      ("D125", 2500)])
+def test_operating_current_is_the_upper_iec_60898_band_limit(code, ia):
+    # IEC 60898-1 bands B 3–5, C 5–10, D 10–20 × In (read, REFERENCE_VALUES 8): Ia = upper × In.
+    assert protection.operating_current(protection.parse_breaker(code)) == ia
+
+
+@pytest.mark.parametrize("voltage, seconds", [(100, 0.8), (120, 0.8), (127, 0.4), (230, 0.4),
+                                              (277, 0.2), (400, 0.2), (480, 0.1)])
+def test_table_41_1_tn_disconnection_times(voltage, seconds):
+    # IEC 60364-4-41 Table 41.1, TN, AC (read, REFERENCE_VALUES 8): 50 < U0 ≤ 120 V 0.8 s,
+    # ≤ 230 V 0.4 s, ≤ 400 V 0.2 s, > 400 V 0.1 s.
+    assert protection.disconnection_time(voltage) == seconds
+    assert protection.disconnection_time(voltage, "distribution") == 5.0  # 411.3.2.3 (read)
+
+
+@pytest.mark.parametrize("voltage, seconds", [(120, 0.3), (230, 0.2), (400, 0.07), (690, 0.04)])
+def test_table_41_1_tt_disconnection_times(voltage, seconds):
+    # IEC 60364-4-41 Table 41.1, TT, AC (read, REFERENCE_VALUES 8).
+    assert protection.disconnection_time(voltage, system="tt") == seconds
+
+
+@pytest.mark.parametrize("code, table", [("B16", 2.87), ("B32", 1.44), ("C16", 1.44),
+                                         ("C32", 0.72), ("D16", 0.72), ("D32", 0.36)])
+def test_largest_zs_matches_the_bs_7671_2008_table(code, table):
+    # BS 7671:2008 Table 41.3, 0.4 s, U0 = 230 V, MCBs to BS EN 60898 (from memory): the
+    # table is U0 / Ia rounded to 0.01 Ω, hence abs = 0.005 Ω.
+    out = values("ground-fault-trip", **IEC_CIRCUIT, breaker=code, length=10)
+    assert out["zs_max"] == pytest.approx(table, abs=0.005)
+
+
+def test_r1_plus_r2_of_2_5_and_1_5_mm2_at_20_and_70_c():
+    # IEC 60228 Table 2 (read, REFERENCE_VALUES 3): 7.41 + 12.1 = 19.51 mΩ/m at 20 °C. The
+    # loop's reactance (~0.2 mΩ/m) and skin effect change |z| by < 0.01 %, hence 1e-3.
+    size, cpc = units.parse_conductor_size("2.5 mm2"), units.parse_conductor_size("1.5 mm2")
+    cold = protection.loop_impedance_per_metre(size, cpc, "cu", 20.0, 50.0)
+    assert abs(cold) == pytest.approx(19.51e-3, rel=1e-3)
+    # BS 7671 practice multiplies by 1.20 for 70 °C PVC: 23.41 mΩ/m (from memory). α20 = 0.00393
+    # gives 1.1965, so the practice factor is 0.3 % high: 5e-3.
+    hot = protection.loop_impedance_per_metre(size, cpc, "cu", 70.0, 50.0)
+    assert abs(hot) == pytest.approx(23.41e-3, rel=5e-3)
+
+
+def test_iec_radial_circuit_by_hand():
+    # 230 V, Ze 0.35 Ω, 30 m of 2.5/1.5 mm² Cu at 70 °C, B20. By hand from IEC 60228 (read) and
+    # α20 = 0.00393 (IEC 60028): R1 + R2 = 19.51 × (1 + 0.00393 × 50) = 23.344 mΩ/m; Zs = 0.35
+    # + 30 × 0.023344 = 1.0503 Ω; I = 219.0 A ≥ Ia = 5 × 20 = 100 A; L_max = (230/100 − 0.35)
+    # / 0.023344 = 83.53 m. Reactance is left out by hand: 1e-3.
+    per_m = 19.51e-3 * (1 + 0.00393 * 50)
+    out = values("ground-fault-trip", **IEC_CIRCUIT, breaker="B20", length=30)
+    assert out["zs"] == pytest.approx(0.35 + 30 * per_m, rel=1e-3)
+    assert out["fault_a"] == pytest.approx(230 / (0.35 + 30 * per_m), rel=1e-3)
+    assert out["trips"] is True and out["ia"] == 100
+    assert out["max_length"] == pytest.approx((2.3 - 0.35) / per_m, rel=1e-3)
+    assert out["disconnection_time"] == 0.4
+
+
+def test_north_american_branch_by_hand():
+    # 120 V, Ze 0.15 Ω, 100 ft of 12 AWG Cu with a 12 AWG EGC at 75 °C, 20 A breaker with a 10x
+    # instantaneous ± 20 %: NEC Chapter 9 Table 8 (read) 1.98 Ω/kft per conductor -> 0.396 Ω;
+    # Zs = 0.546 Ω; I = 219.8 A < Ia = 240 A: it does not trip instantaneously. L_max =
+    # (0.5 − 0.15) / 3.96 Ω/kft = 88.4 ft. NEC Table 9 XL (0.054 Ω/kft each, from memory) adds
+    # 0.04 % to |z|, hence 1e-3.
+    out = values("ground-fault-trip", voltage=120, ze=0.15, size="12 AWG", cpc_size="12 AWG",
+                 length="100 ft", breaker="20 A 10x", conductor_temp_c=75)
+    assert out["zs"] == pytest.approx(0.15 + 0.396, rel=1e-3)
+    assert out["trips"] is False and out["ia"] == pytest.approx(240, rel=1e-12)
+    assert out["max_length"] == pytest.approx(0.35 / 3.96 * 1000 * 0.3048, rel=1e-3)
+
+
+def test_moulded_case_tolerance_moves_ia():
+    assert protection.operating_current(protection.parse_breaker("100 A 10x", 0)) == 1000
+    assert protection.operating_current(protection.parse_breaker("100 A 10x", 20)) == \
+        pytest.approx(1200, rel=1e-12)
+    assert protection.operating_current(protection.parse_breaker("250 a 7.5X", 10)) == \
+        pytest.approx(250 * 7.5 * 1.1, rel=1e-12)
+
+
+def test_breaker_codes_beyond_the_form_list_are_accepted():
+    # The form lists common breakers; any code of the syntax works from a link or the CLI.
+    out = values("ground-fault-trip", **IEC_CIRCUIT, breaker="250 A 7x", length=10,
+                 trip_tolerance_pct=0)
+    assert out["ia"] == pytest.approx(1750, rel=1e-12)
+    listed = api.get("ground-fault-trip").input("breaker").suggestions
+    assert "250 A 7x" not in listed and "B16" in listed and "100 A 10x" in listed
+
+
+# ---- ground-fault-trip: limiting cases and properties ---------------------------------------
+
+def test_zero_length_leaves_ze():
+    out = values("ground-fault-trip", **IEC_CIRCUIT, breaker="B16", length=0)
+    assert out["zs"] == 0.35 and out["r1_r2"] == 0
+
+
+def test_ze_above_the_breaker_limit_leaves_no_length():
+    result = run("ground-fault-trip", **dict(IEC_CIRCUIT, ze=1.5), breaker="C32", length=5)
+    assert result["outputs"]["max_length"]["value"] == 0
+    message = next(c["message"] for c in result["checks"] if c["name"] == "tn_condition")
+    assert "no length of cable passes" in message
+
+
+CIRCUITS = st.fixed_dictionaries({
+    "voltage": st.sampled_from([120, 230, 277]), "ze": st.floats(0.01, 1.0),
+    "size": st.sampled_from(["1.5 mm2", "2.5 mm2", "6 mm2", "14 AWG", "10 AWG"]),
+    "cpc_size": st.sampled_from(["1 mm2", "1.5 mm2", "14 AWG", "12 AWG"]),
+    "breaker": st.sampled_from(["B6", "B16", "C10", "C20", "D16", "15 A 10x", "30 A 5x"]),
+    "conductor_temp_c": st.floats(20, 90), "circuit": st.sampled_from(["final", "distribution"]),
+})
+
+
+@settings(max_examples=60, deadline=None)
+@given(CIRCUITS, st.floats(0.5, 300))
+def test_max_length_is_where_zs_times_ia_equals_u0(circuit, length):
+    out = values("ground-fault-trip", **circuit, length=length)
+    if out["max_length"] == 0:
+        return  # Ze alone is over the limit (tested above)
+    at_limit = values("ground-fault-trip", **circuit, length=out["max_length"])  # 1e-9: rounding
+    assert at_limit["zs"] * at_limit["ia"] == pytest.approx(circuit["voltage"], rel=1e-9)
+    # the longest run does not depend on the length entered
+    assert at_limit["max_length"] == pytest.approx(out["max_length"], rel=1e-12)
+    shorter = values("ground-fault-trip", **circuit, length=out["max_length"] * 0.999)
+    longer = values("ground-fault-trip", **circuit, length=out["max_length"] * 1.001)
+    assert shorter["trips"] is True and longer["trips"] is False
+
+
+@settings(max_examples=40, deadline=None)
+@given(CIRCUITS, st.floats(0.5, 200), st.floats(1.0, 3.0))
+def test_a_longer_run_never_trips_more_readily(circuit, length, factor):
+    short = values("ground-fault-trip", **circuit, length=length)
+    long_ = values("ground-fault-trip", **circuit, length=length * factor)
+    assert long_["zs"] >= short["zs"] and long_["fault_a"] <= short["fault_a"]
+    assert not (long_["trips"] and not short["trips"])
+
+
+def test_max_length_agrees_with_a_scipy_root_of_the_tn_condition():
+    # brentq on Zs(L) × Ia − U0 using the calculator's own Zs at each length, to 1e-12 m.
+    optimize = pytest.importorskip("scipy.optimize")
+    ia = values("ground-fault-trip", **IEC_CIRCUIT, breaker="C16", length=1)["ia"]
+    root = optimize.brentq(
+        lambda length: values("ground-fault-trip", **IEC_CIRCUIT, breaker="C16",
+                              length=length)["zs"] * ia - 230, 0, 5000, xtol=1e-12)
+    assert values("ground-fault-trip", **IEC_CIRCUIT, breaker="C16", length=1)["max_length"] == \
+        pytest.approx(root, rel=1e-9)
+
+
+def test_chart_crosses_the_limit_at_the_longest_run():
+    result = run("ground-fault-trip", **IEC_CIRCUIT, breaker="B32", length=20)
+    chart, out = result["series"], result["outputs"]
+    limit = next(m["value"] for m in chart["marks"] if m["axis"] == "y")
+    assert limit == pytest.approx(out["zs_max"]["value"], rel=1e-12)
+    longest = next(m["value"] for m in chart["marks"] if m["label"] == "Longest run")
+    assert longest == pytest.approx(out["max_length"]["value"], rel=1e-12)
+    assert chart["y"][0]["values"][0] == pytest.approx(0.35, rel=1e-12)
+
+
+def test_validity_warnings():
+    scope = checks(run("ground-fault-trip", **IEC_CIRCUIT, breaker="B40", length=5))
+    assert scope["table_41_1_scope"] == "warn"
+    mixed = checks(run("ground-fault-trip", **dict(IEC_CIRCUIT, cpc_size="14 AWG"),
+                       breaker="B16", length=5))
+    assert mixed["size_systems"] == "warn"
+    high = checks(run("ground-fault-trip", **dict(IEC_CIRCUIT, voltage=480), breaker="B16",
+                      length=5))
+    assert high["mcb_voltage"] == "warn"
+
+
+@pytest.mark.parametrize("inputs, field", [
+    ({"breaker": "B17"}, "breaker"),
+    ({"breaker": "E16"}, "breaker"),
+    ({"breaker": "100 A 50x"}, "breaker"),
+    ({"breaker": "100 A"}, "breaker"),
+    ({"cpc_size": ""}, "cpc_size"),
+    ({"cpc_size": "none"}, "cpc_size"),
+    ({"material": "al", "cpc_size": "2.5 mm2", "size": "16 mm2"}, "cpc_size"),
+    ({"material": "al", "size": "4 mm2", "cpc_size": "16 mm2"}, "size"),
+    ({"material": "al", "size": "16 AWG", "cpc_size": "12 AWG"}, "size"),
+    ({"voltage": 48}, "voltage"),
+    ({"length": "-3 m"}, "length"),
+    ({"ze": 0}, "ze"),
+    ({"circuit": "sub-main"}, "circuit"),
+])
+def test_ground_fault_trip_bad_input_names_the_field(inputs, field):
+    assert error_fields("ground-fault-trip", **{**IEC_CIRCUIT, "breaker": "B16", "length": 10,
+                                                **inputs}) == [field]
+
+
+def test_bad_breaker_message_lists_the_forms_and_every_wrong_field_at_once():
+    result = api.run("ground-fault-trip", dict(IEC_CIRCUIT, breaker="B17", length=10, voltage=20))
+    assert sorted(e["field"] for e in result["errors"]) == ["breaker", "voltage"]
+    message = next(e["message"] for e in result["errors"] if e["field"] == "breaker")
+    assert "'B17': 17 A is not an IEC 60898-1 preferred rating" in message
+    assert "e.g. 100 A 10x" in message and len(message) < 600  # the forms, not every choice
+    with pytest.raises(protection.InputError, match=r"not an IEC 60898-1 preferred rating.*"
+                                                     r"6, 10, 13, 16.*100 A 10x"):
+        protection.parse_breaker("B17")
+    with pytest.raises(protection.InputError, match=r"multiple 2x to 20x"):
+        protection.parse_breaker("100 A 50x")
+    with pytest.raises(protection.InputError, match=r"not a breaker code"):
+        protection.parse_breaker("sixteen")
+
+
+# ---- gfci-check -----------------------------------------------------------------------------
+
+def test_ul_943_curve_published_form():
+    # UL 943 (read as quoted): T = (20/I)^1.43 with I in mA and T in s. pint carries the units,
+    # so the A-based implementation is checked against the mA formula exactly as published.
+    pint = pytest.importorskip("pint")
+    ureg = pint.UnitRegistry()
+    for milliamps in (6, 10, 20, 50, 100, 264):
+        published = (20 / milliamps) ** 1.43
+        current = (milliamps * ureg.mA).to(ureg.A).magnitude
+        assert protection.gfci_time_limit(current) == pytest.approx(published, rel=1e-12)
+    assert protection.gfci_time_limit(0.020) == pytest.approx(1.0, rel=1e-12)  # 20 mA -> 1 s
+
+
+@pytest.mark.parametrize("milliamps, ok", [(3.9, False), (4.0, True), (5.1, True), (6.0, True),
+                                           (6.1, False)])
+def test_gfci_trip_current_window(milliamps, ok):
+    # UL 943 Class A (read): must not trip below 4 mA; must trip at 6 mA and above.
+    out = values("gfci-check", device="gfci", trip_current=f"{milliamps} mA")
+    assert out["passes"] is ok
+
+
+@pytest.mark.parametrize("milliamps, ok", [(15.0, False), (15.1, True), (30.0, True),
+                                           (30.5, False)])
+def test_rcd_trip_current_window(milliamps, ok):
+    # IEC 61008-1 (from memory, REFERENCE_VALUES 8): no trip at 50 % IΔn, trip by IΔn.
+    out = values("gfci-check", device="rcd", rated_residual=30, trip_current=f"{milliamps} mA")
+    assert out["passes"] is ok
+
+
+@pytest.mark.parametrize("device, rated, test, limit, least", [
+    ("rcd", 30, 30, 0.3, None), ("rcd", 30, 60, 0.15, None), ("rcd", 30, 150, 0.04, None),
+    ("rcd", 30, 45, 0.3, None), ("rcd", 30, 400, 0.04, None),
+    ("rcd-s", 100, 100, 0.5, 0.13), ("rcd-s", 100, 200, 0.2, 0.06),
+    ("rcd-s", 300, 1500, 0.15, 0.05),
+])
+def test_rcd_break_time_limits(device, rated, test, limit, least):
+    # IEC 61008-1 / 61009-1 break times (from memory, REFERENCE_VALUES 8): general 300 / 150 /
+    # 40 ms at 1 / 2 / 5 IΔn; type S 130–500 ms at IΔn, 60–200 ms at 2 IΔn, 50–150 ms at 5 IΔn.
+    out = values("gfci-check", device=device, rated_residual=rated, test_current=test,
+                 trip_time="1 ms")
+    assert out["time_limit"] == pytest.approx(limit, rel=1e-12)
+    assert out.get("min_time") == (None if least is None else pytest.approx(least, rel=1e-12))
+
+
+@pytest.mark.parametrize("inputs, ok", [
+    ({"device": "rcd", "trip_time": "299 ms"}, True),
+    ({"device": "rcd", "trip_time": "301 ms"}, False),
+    ({"device": "rcd", "test_current": 150, "trip_time": "41 ms"}, False),
+    ({"device": "rcd", "test_current": 15, "trip_time": "20 ms"}, False),  # tripped at 50 %
+    ({"device": "rcd", "test_current": 21, "trip_time": "2 s"}, True),  # no time below IΔn
+    ({"device": "rcd-s", "rated_residual": 100, "trip_time": "120 ms"}, False),  # too fast
+    ({"device": "rcd-s", "rated_residual": 100, "trip_time": "200 ms"}, True),
+    ({"device": "gfci", "test_current": 10, "trip_time": "2.6 s"}, True),  # 2^1.43 = 2.69 s
+    ({"device": "gfci", "test_current": 10, "trip_time": "2.8 s"}, False),
+    ({"device": "gfci", "test_current": 3, "trip_time": "1 s"}, False),  # below 4 mA
+    ({"device": "gfci", "test_current": 5, "trip_time": "9 s"}, True),  # 4–6 mA: no time
+])
+def test_trip_time_judgement(inputs, ok):
+    assert values("gfci-check", **inputs)["passes"] is ok
+
+
+def test_gfci_formula_outside_its_range_warns():
+    status = checks(run("gfci-check", device="gfci", test_current="300 mA", trip_time="20 ms"))
+    assert status["curve_range"] == "warn" and status["trip_time"] == "pass"
+
+
+@settings(max_examples=100, deadline=None)
+@given(st.floats(6e-3, 264e-3), st.floats(1.0, 3.0))
+def test_more_current_is_never_allowed_more_time(current, factor):
+    assert protection.gfci_time_limit(current * factor) <= protection.gfci_time_limit(current)
+    for device in ("rcd", "rcd-s"):
+        low = protection.rcd_time_limits(current * 4, 0.01, device)
+        high = protection.rcd_time_limits(current * 4 * factor, 0.01, device)
+        if low is not None:
+            assert high[1] <= low[1]
+
+
+def test_additional_protection_and_type_s_notes():
+    assert checks(run("gfci-check", device="rcd", rated_residual=100,
+                      trip_current="70 mA"))["additional_protection"] == "warn"
+    assert checks(run("gfci-check", device="rcd-s", rated_residual=30,
+                      trip_current="20 mA"))["type_s"] == "warn"
+
+
+def test_nothing_measured_warns_and_gives_no_verdict():
+    result = run("gfci-check", device="gfci")
+    assert checks(result)["measured"] == "warn" and "passes" not in result["outputs"]
+    assert any("TEST button checks the mechanism only" in c for c in result["cautions"])
+
+
+@pytest.mark.parametrize("inputs, field", [
+    ({"device": "gfci", "trip_time": "25 ms"}, "test_current"),
+    ({"device": "rcbo"}, "device"),
+    ({"rated_residual": 0}, "rated_residual"),
+    ({"trip_time": "-5 ms"}, "trip_time"),
+    ({"trip_current": "abc"}, "trip_current"),
+])
+def test_gfci_check_bad_input_names_the_field(inputs, field):
+    assert error_fields("gfci-check", **inputs) == [field]
+
+
+# ---- the reference page -----------------------------------------------------------------------
+
+def test_reference_page_cells_are_the_calculators_own():
+    from build.reference import protection as page
+    grid = page.longest_run_grid("iec")
+    i = page.LONGEST_RUN_CIRCUITS["iec"]["cables"].index(("2.5 mm²", "1.5 mm²"))
+    j = page.LONGEST_RUN_CIRCUITS["iec"]["breakers"].index("B20")
+    out = values("ground-fault-trip", **IEC_CIRCUIT, breaker="B20", length=1)
+    assert grid[i, j] == pytest.approx(out["max_length"], rel=1e-12)
+    times = page.ul943_times()
+    assert times[list(page.UL943_TABLE_MA).index(20)] == pytest.approx(1.0, rel=1e-12)
