@@ -7,7 +7,7 @@ checking, output formatting and the guarantee of finite numbers live in one plac
 import json
 import math
 
-from calc import __version__, conductors, line_loss, motor_start, motors, protection, transformers, units, voltage_drop  # noqa: E501
+from calc import __version__, conductors, line_loss, motor_start, motors, power_factor, protection, rlc, transformers, units, voltage_drop  # noqa: E501
 from calc.errors import CalcError, InputError, InputErrors, UnitError
 
 # The registry: every calculator Fluxbook ships, in the order the site lists them.
@@ -35,6 +35,10 @@ _CALCULATORS = (
     protection.GROUND_FAULT_TRIP,
     protection.GFCI_CHECK,
     # Inductors, RLC and power-factor correction
+    rlc.SWITCHING_TRANSIENT,
+    rlc.RLC_RESONANCE,
+    rlc.INDUCTIVE_KICK,
+    power_factor.POWER_FACTOR_CORRECTION,
 )
 
 REGISTRY = {calculator.id: calculator for calculator in _CALCULATORS}
