@@ -1,6 +1,7 @@
 """MkDocs hooks: thin calls into the tested build modules (see DEVELOPERS.md, "The build")."""
 
 import json
+import re
 import sys
 from pathlib import Path
 
@@ -88,6 +89,14 @@ def on_page_content(html, page, config, files):
         html,
         lambda n: forms.render_calculator(blocks[n][0], settings, preset=blocks[n][1], index=n),
     )
+
+
+CANONICAL_LINK = re.compile(r'\s*<link rel="canonical" href="[^"]*">')
+
+
+def on_post_page(output, page, config):
+    # The canonical URL would carry the placeholder site_url; the copy's real address is unknown.
+    return CANONICAL_LINK.sub("", output)
 
 
 def on_post_build(config):

@@ -30,6 +30,8 @@ VENDOR_FILES = {  # node_modules source -> site path
 SERVER_HEADERS_FILE = "server-headers.txt"  # the headers a host should send (CSP with hashes)
 CHECKSUMS_FILE = "SHA256SUMS"  # SHA-256 of every shipped file, for release checks
 SERVICE_WORKER_FILE = "sw.js"
+SERVICE_WORKER_SITEMAP = "assets/js/sw-sitemap.js"  # imported by sw.js: sitemap for any host
+SITE_URL_PLACEHOLDER = "https://fluxbook.invalid/"  # = site_url in mkdocs.yml
 SERVICE_WORKER_SCRIPT = ROOT / "build" / "service_worker.mjs"
 
 # workbox-build: files above 2 MiB are silently dropped by default; the wasm is 9.6 MB.

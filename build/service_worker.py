@@ -29,6 +29,7 @@ def workbox_options(site_dir):
         "sourcemap": False,
         "cacheId": "fluxbook",
         "directoryIndex": "index.html",
+        "importScripts": [paths.SERVICE_WORKER_SITEMAP],  # before Workbox's own handlers
     }
 
 

@@ -7,7 +7,19 @@ checking, output formatting and the guarantee of finite numbers live in one plac
 import json
 import math
 
-from calc import __version__, conductors, line_loss, motor_start, motors, power_factor, protection, rlc, transformers, units, voltage_drop  # noqa: E501
+from calc import (
+    __version__,
+    conductors,
+    line_loss,
+    motor_start,
+    motors,
+    power_factor,
+    protection,
+    rlc,
+    transformers,
+    units,
+    voltage_drop,
+)
 from calc.errors import CalcError, InputError, InputErrors, UnitError
 
 # The registry: every calculator Fluxbook ships, in the order the site lists them.

@@ -260,3 +260,13 @@ def test_text_inputs_offer_their_suggestions():
     html = forms.render_calculator("ground-fault-trip", team.parse({"region": "iec"}))
     assert 'name="breaker" type="text"' in html and 'value="B20"' in html
     assert '<option value="C32"></option>' in html
+
+
+def test_the_placeholder_site_url_is_the_same_everywhere(built_site):
+    config = (ROOT / "mkdocs.yml").read_text(encoding="utf-8")
+    script = (ROOT / "site_src" / paths.SERVICE_WORKER_SITEMAP).read_text(encoding="utf-8")
+    assert f"site_url: {paths.SITE_URL_PLACEHOLDER}" in config
+    assert f'"{paths.SITE_URL_PLACEHOLDER}"' in script
+    assert f'importScripts("{paths.SERVICE_WORKER_SITEMAP}")' in (built_site / "sw.js").read_text(encoding="utf-8")
+    for page in built_site.rglob("*.html"):
+        assert paths.SITE_URL_PLACEHOLDER not in page.read_text(encoding="utf-8"), page

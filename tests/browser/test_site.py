@@ -205,3 +205,49 @@ def test_home_page_reports_offline_storage(context, site):
     page.goto(site)
     expect(page.locator("[data-offline-report]")).to_contain_text("stored on this device")
     expect(page.locator("[data-offline-report]")).to_contain_text("Storage used by this site")
+
+
+def test_every_calculator_page_computes_its_defaults(browser, site):
+    # Once the service worker holds the site, links move by instant navigation and the engine
+    # stays booted: one calculator worker for the whole tour. Each page's default inputs must
+    # give a result, with no page error and no console error.
+    from calc import api
+    context = browser.new_context(viewport={"width": 1280, "height": 900})
+    context.set_default_timeout(60000)
+    problems, workers = [], []
+    try:
+        page = context.new_page()
+        page.goto(site + PAGE)
+        wait_done(page)
+        page.wait_for_selector('html[data-offline="stored"]')
+        page.on("pageerror", lambda error: problems.append(str(error)))
+        page.on("console", lambda m: problems.append(m.text) if m.type == "error" else None)
+        page.on("worker", lambda worker: workers.append(worker.url))
+        page.reload()  # now controlled by the service worker
+        wait_done(page)
+        for calculator_id in api.REGISTRY:
+            page.locator(f'nav a[href$="calculators/{calculator_id}/"]').first.dispatch_event("click")
+            page.wait_for_selector(f'[data-calculator="{calculator_id}"][data-state="done"]')
+            assert page.locator(".fb-out__value").first.text_content() not in ("—", ""), calculator_id
+            assert page.locator(".fb-general-msg").is_hidden(), calculator_id
+    finally:
+        context.close()
+    assert not problems, problems
+    assert len([url for url in workers if url.endswith("calc-worker.js")]) == 1, workers
+
+
+def test_sitemap_is_rewritten_to_the_copy_s_own_address(browser, built_site):
+    from build import paths
+    assert paths.SITE_URL_PLACEHOLDER in (built_site / "sitemap.xml").read_text(encoding="utf-8")
+    context = browser.new_context()
+    context.set_default_timeout(60000)
+    try:
+        with serving(built_site, prefix="/tools/fluxbook/") as (base, _):
+            page = context.new_page()
+            page.goto(base)
+            page.wait_for_selector('html[data-offline="stored"]')
+            page.reload()
+            text = page.evaluate("fetch('sitemap.xml').then(r => r.text())")
+            assert paths.SITE_URL_PLACEHOLDER not in text and f"<loc>{base}calculators/" in text
+    finally:
+        context.close()
