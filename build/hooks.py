@@ -101,6 +101,7 @@ def on_post_page(output, page, config):
 
 def on_post_build(config):
     site_dir = Path(config.site_dir)
+    release_files.strip_sitemap_dates(site_dir)
     release_files.write_server_headers(site_dir)
     try:
         precache = service_worker.generate(site_dir)  # last: every other file is written

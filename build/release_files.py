@@ -1,6 +1,7 @@
 """Files written beside the site for its hosts: the headers to send, and a checksum list."""
 
 import base64
+import gzip
 import hashlib
 import re
 from pathlib import Path
@@ -69,3 +70,17 @@ def write_checksums(site_dir):
         lines.append(f"{hashlib.sha256(file.read_bytes()).hexdigest()}  {relative}")
     (site_dir / paths.CHECKSUMS_FILE).write_text("\n".join(lines) + "\n", encoding="utf-8")
     return len(lines)
+
+
+LASTMOD = re.compile(r"\s*<lastmod>[^<]*</lastmod>")
+
+
+def strip_sitemap_dates(site_dir):
+    """Drop the build date from sitemap.xml (and rewrite its .gz with no timestamp), so the same
+    sources give the same files on any day and a rebuild offers no needless update."""
+    sitemap = Path(site_dir) / "sitemap.xml"
+    if not sitemap.exists():
+        return
+    text = LASTMOD.sub("", sitemap.read_text(encoding="utf-8"))
+    sitemap.write_text(text, encoding="utf-8")
+    (Path(site_dir) / "sitemap.xml.gz").write_bytes(gzip.compress(text.encode("utf-8"), mtime=0))

@@ -202,6 +202,9 @@ def test_the_same_sources_build_the_same_bytes(built_site, tmp_path):
     assert build_site(again).returncode == 0
     assert (again / paths.CALC_ZIP_SITE_PATH).read_bytes() == (built_site / paths.CALC_ZIP_SITE_PATH).read_bytes()
     assert _precache(again) == _precache(built_site)
+    for name in ("sitemap.xml", "sitemap.xml.gz"):  # no build date: the same bytes any day
+        assert (again / name).read_bytes() == (built_site / name).read_bytes()
+    assert "<lastmod>" not in (built_site / "sitemap.xml").read_text(encoding="utf-8")
 
 
 def test_organisation_from_the_team_file_reaches_the_pages(tmp_path):
