@@ -4,7 +4,7 @@ shared node where other loads (the lights) hang, how long, whether it matters, a
 
 import math
 
-from calc import cautions, motors, network, units
+from calc import cautions, motors, network, transformers, units
 from calc.errors import InputError
 from calc.spec import Calculator, Input, Output, Result
 from calc.units import format_quantity as fq
@@ -12,23 +12,13 @@ from calc.units import format_quantity as fq
 SQRT3 = math.sqrt(3.0)
 HP_W = units.to_si(1, "hp")
 
-# Starting methods: line current as a fraction of across-the-line locked-rotor current, and how
-# the starting motor looks to the supply. Ratios from REFERENCE_VALUES 4d (theory: wye-delta 1/3;
-# autotransformer line current ≈ tap²; primary reactor ≈ k); soft starter and VFD hold a set
-# current (common practice).
-STARTING = (
-    ("dol", "Across the line (full voltage)"),
-    ("wye-delta", "Wye-delta (open transition)"),
-    ("auto-80", "Autotransformer, 80 % tap"),
-    ("auto-65", "Autotransformer, 65 % tap"),
-    ("auto-50", "Autotransformer, 50 % tap"),
-    ("soft-3", "Soft starter, 3 × full-load current limit"),
-    ("vfd", "Variable-frequency drive (about 1.2 × full-load current)"),
-)
-IMPEDANCE_SCALE = {"dol": 1.0, "wye-delta": 3.0, "auto-80": 1 / 0.64, "auto-65": 1 / 0.4225,
-                   "auto-50": 1 / 0.25}  # Z seen by the supply ÷ the motor's locked-rotor Z
-HELD_CURRENT_FLC = {"soft-3": 3.0, "vfd": 1.2}  # constant line current, multiple of full load
-HELD_PF = {"soft-3": 0.35, "vfd": 0.9}  # power factor of that current (common practice)
+# Starting methods and their line currents come from calc.motors (REFERENCE_VALUES 4d). Methods
+# that act like an impedance (full voltage, wye-delta, autotransformer) are the locked-rotor
+# impedance scaled by I_LR / I_line; soft starters and drives hold a current. The primary reactor
+# needs its voltage fraction, which this calculator does not ask for, so it is left out here.
+STARTING = tuple(item for item in motors.STARTING_METHODS if item[0] != "reactor")
+HELD_CURRENT = ("soft", "vfd")
+HELD_PF = {"soft": 0.35, "vfd": 0.9}  # power factor of that current (common practice)
 
 # Judgement thresholds, each with its basis (see REFERENCE_VALUES 7).
 MOTOR_ACCELERATE_PCT = 80.0  # IEEE 141 ch. 3, critical voltage levels — from memory
@@ -105,11 +95,16 @@ def _motor_load(inputs, starting):
     else:
         locked = locked_rotor_current(hp, volts, inputs["code_letter"])[1]  # high end: worst case
     full_load = inputs["motor_power"] / (SQRT3 * volts * 0.9 * 0.85)  # η 0.9, pf 0.85 assumed
-    if starting in HELD_CURRENT_FLC:
-        amps = HELD_CURRENT_FLC[starting] * full_load
-        return {"kva": SQRT3 * volts * amps / 1e3, "pf": HELD_PF[starting], "model": "current"}, amps, locked
-    kva = SQRT3 * volts * locked / IMPEDANCE_SCALE[starting] / 1e3
+    line = motors.starting_current(starting, locked, full_load).line
+    if starting in HELD_CURRENT:
+        return {"kva": SQRT3 * volts * line / 1e3, "pf": HELD_PF[starting], "model": "current"}, line, locked
+    kva = SQRT3 * volts * line / 1e3  # the locked-rotor impedance seen through the starter
     return {"kva": kva, "pf": inputs["starting_pf"], "model": "impedance"}, None, locked
+
+
+def impedance_scale(starting):
+    """Z seen by the supply ÷ the motor's locked-rotor Z for an impedance-like starting method."""
+    return 1.0 / motors.starting_current(starting, 1.0, 1.0).line
 
 
 def _dips(inputs, starting=None, feeder_size=None, kva=None, separate=False):
@@ -136,7 +131,6 @@ def _next_size(size, steps):
 
 
 def _next_rating(kva, region_is_iec):
-    from calc import transformers  # the preferred-rating lists live with the transformers
     ratings = transformers.PREFERRED_KVA_IEC if region_is_iec else transformers.PREFERRED_KVA_3PH_NA
     larger = [r * 1e3 for r in ratings if r * 1e3 > kva * 1.0001]
     return larger[0] if larger else kva * 1.5
@@ -169,7 +163,7 @@ def _motor_start_view(inputs):
                     f"{fq(base['locked'], 'A')}")
     if base["held"] is None:
         result.step(f"Starting: {start_text}; the motor is its locked-rotor impedance at "
-                    f"pf {inputs['starting_pf']:g}, seen by the supply × {IMPEDANCE_SCALE[inputs['starting']]:.3g}",
+                    f"pf {inputs['starting_pf']:g}, seen by the supply × {impedance_scale(inputs['starting']):.3g}",
                     "Z_start = V² / S_LR × scale", "constant impedance while it accelerates")
     else:
         result.step(f"Starting: {start_text}", "I_line = multiple × I_FL",
@@ -213,7 +207,7 @@ def _motor_start_view(inputs):
     if bigger.label != inputs["feeder_size"].label:
         remedies.append((f"Shared feeder two sizes larger ({bigger.label})", _dips(inputs, feeder_size=bigger)))
     remedies.append(("Motor on its own run from the transformer", _dips(inputs, separate=True)))
-    for option in ("wye-delta", "soft-3"):
+    for option in ("wye-delta", "soft"):
         if option != inputs["starting"]:
             remedies.append((f"Reduced-voltage start: {dict(STARTING)[option]}", _dips(inputs, starting=option)))
     larger = _next_rating(inputs["xfmr_kva"], inputs["secondary_v"] in (230.0, 400.0, 690.0))

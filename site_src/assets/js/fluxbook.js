@@ -104,8 +104,8 @@ function wire(root, roots) {
   root.querySelector('[data-action="copy-link"]').addEventListener("click", () => copyLink(root));
   root.querySelector('[data-action="print"]').addEventListener("click", () => window.print());
   const running = engine();
+  root.fbOffline = offlineState;
   const stop = running.onStage((state) => showEngine(root, state));
-  onOffline((state) => { root.fbOffline = state; showEngine(root, running.state); });
   running.ready.then(() => {
     stop();
     showEngine(root, running.state);
@@ -114,13 +114,27 @@ function wire(root, roots) {
   }, () => {});
 }
 
+// Instant navigation replaces the page's elements but not this module: one offline listener
+// serves whatever page is showing, instead of one left behind per page visited.
+let currentRoots = [];
+let offlineState = "checking";
+
 function initPage() {
-  const roots = Array.from(document.querySelectorAll("[data-calculator]"));
-  for (const root of roots) wire(root, roots);
+  currentRoots = Array.from(document.querySelectorAll("[data-calculator]"));
+  for (const root of currentRoots) wire(root, currentRoots);
   const report = document.querySelector("[data-offline-report]");
-  if (report) onOffline(() => reportStorage(report));
+  if (report) reportStorage(report);
 }
 
+onOffline((state) => {
+  offlineState = state;
+  for (const root of currentRoots) {
+    root.fbOffline = state;
+    if (root.fbWired) showEngine(root, engine().state);
+  }
+  const report = document.querySelector("[data-offline-report]");
+  if (report) reportStorage(report);
+});
 startOffline();
 if (window.document$ && typeof window.document$.subscribe === "function") {
   window.document$.subscribe(initPage);
