@@ -7,53 +7,11 @@ checking, output formatting and the guarantee of finite numbers live in one plac
 import json
 import math
 
-from calc import (
-    __version__,
-    conductors,
-    line_loss,
-    motor_start,
-    motors,
-    power_factor,
-    protection,
-    rlc,
-    transformers,
-    units,
-    voltage_drop,
-)
+from calc import __version__, units
+from calc.calculators import CALCULATORS
 from calc.errors import CalcError, InputError, InputErrors, UnitError
 
-# The registry: every calculator Fluxbook ships, in the order the site lists them.
-_CALCULATORS = (
-    # Conductors and voltage drop
-    conductors.CONDUCTOR,
-    voltage_drop.VOLTAGE_DROP,
-    voltage_drop.WIRE_SIZE,
-    voltage_drop.MAX_LENGTH,
-    line_loss.LINE_LOSS,
-    # Transformers
-    transformers.CURRENTS,
-    transformers.SIZE,
-    transformers.FAULT_CURRENT,
-    transformers.REGULATION,
-    transformers.EFFICIENCY,
-    transformers.BUCK_BOOST,
-    transformers.SUPPLY_MISMATCH,
-    # Motors and the supply path
-    motors.MOTOR_CURRENT,
-    motor_start.MOTOR_START_DIP,
-    motors.BACK_EMF,
-    # Protection and shock safety
-    protection.FAULT_CURRENT,
-    protection.GROUND_FAULT_TRIP,
-    protection.GFCI_CHECK,
-    # Inductors, RLC and power-factor correction
-    rlc.SWITCHING_TRANSIENT,
-    rlc.RLC_RESONANCE,
-    rlc.INDUCTIVE_KICK,
-    power_factor.POWER_FACTOR_CORRECTION,
-)
-
-REGISTRY = {calculator.id: calculator for calculator in _CALCULATORS}
+REGISTRY = {calculator.id: calculator for calculator in CALCULATORS}
 
 _TRUE = ("yes", "true", "on", "1")
 _FALSE = ("no", "false", "off", "0")

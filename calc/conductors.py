@@ -1,4 +1,5 @@
-"""Conductors: DC and AC resistance, series reactance and effective impedance of one conductor.
+"""Conductors: DC and AC resistance, series reactance and effective impedance of one conductor,
+with the published resistance tables (NEC Chapter 9 Tables 8 and 9, IEC 60228).
 
 Quantities follow the nomenclature page: area [m²], resistance per length [Ω/m], temperature
 [°C], frequency [Hz], spacing [m] (axial, centre to centre).
@@ -7,34 +8,34 @@ Quantities follow the nomenclature page: area [m²], resistance per length [Ω/m
 import math
 from typing import NamedTuple
 
-from calc import cautions, units
-from calc.errors import InputError
-from calc.spec import Calculator, Input, Output, Result
-from calc.units import format_quantity as fq
+from calc import units
+from calc.errors import ParameterError
 
 METRES_PER_KFT = 304.8  # 1000 ft, exact
 MU0_OVER_2PI = 2e-7  # μ0 / 2π [H/m], the constant of the line-inductance formula
 
 # Resistivity at 20 °C [Ω·m] and temperature coefficient referred to 20 °C [1/K].
-# Copper: annealed, 100 % IACS, 1/58 Ω·mm²/m, α20 = 0.00393 (IEC 60028).
-# Aluminium: EC grade 1350, 61 % IACS, 0.028264 Ω·mm²/m, α20 = 0.00403 (IEC 60889 / IEC 60111;
-# REFERENCE_VALUES 1a, from memory for the standard).
+# Copper: annealed, 100 % IACS, 1/58 Ω·mm²/m, α20 = 0.00393: IEC 60028 (read, as reproduced in
+# K. C. Agrawal, Industrial Power Engineering and Applications Handbook, Table 30.1).
+# Aluminium: EC grade 1350, 61 % IACS, 0.028264 Ω·mm²/m = 1/(58 × 0.61): IEC 60889 / IEC 60111
+# (from memory); 61 % IACS and α20 = 0.00403 read in Agrawal, Table 30.1.
 RESISTIVITY_20C = {"cu": 1e-6 / 58.0, "al": 0.028264e-6}
 ALPHA_20C = {"cu": 0.00393, "al": 0.00403}
 MATERIAL_NAMES = {"cu": "copper", "al": "aluminium"}
 
 # Coefficients referred to 75 °C that NEC Chapter 9 Table 8 note 2 gives for its correction
-# R2 = R1 [1 + α (T2 − 75)] (REFERENCE_VALUES 1a, read).
+# R2 = R1 [1 + α (T2 − 75)] (read, as quoted; 0.00393 / (1 + 0.00393 × 55) = 0.003231 agrees).
 ALPHA_75C_NEC = {"cu": 0.00323, "al": 0.00330}
 
 # Concentric-stranding (lay) factor: each strand is longer than the conductor because it is laid
-# helically, so R is about 2 % above ρ/A. Common practice; NEC Table 8 reproduces with it
-# (REFERENCE_VALUES 2a, computed check).
+# helically, so R is about 2 % above ρ/A (common practice). With it, ρ/A reproduces the stranded
+# columns of NEC Chapter 9 Table 8 within 1 % (computed check).
 LAY_FACTOR_STRANDED = 1.02
 
 # NEC Chapter 9 Table 8: DC resistance at 75 °C [Ω per 1000 ft], uncoated copper stranded, and
-# aluminium stranded. 14 AWG to 500 kcmil read (REFERENCE_VALUES 2a); 18, 16 AWG and 600 to
-# 1000 kcmil are from memory (marked). Aluminium 18 and 16 AWG are left out (not recalled).
+# aluminium stranded. 14 AWG to 500 kcmil read, as reproduced from the 2011 edition (the values
+# are the same in the 2008 to 2023 editions); 18, 16 AWG and 600 to 1000 kcmil are from memory
+# (marked). Aluminium 18 and 16 AWG are left out (not recalled).
 NEC_TABLE8_CU_STRANDED_75C = {
     "18 AWG": 7.95, "16 AWG": 4.99,  # from memory
     "14 AWG": 3.14, "12 AWG": 1.98, "10 AWG": 1.24, "8 AWG": 0.778, "6 AWG": 0.491,
@@ -52,16 +53,16 @@ NEC_TABLE8_AL_STRANDED_75C = {
     "600 kcmil": 0.0353, "700 kcmil": 0.0303, "750 kcmil": 0.0282, "800 kcmil": 0.0265,
     "900 kcmil": 0.0235, "1000 kcmil": 0.0212,  # 600 to 1000 kcmil from memory
 }
-# Uncoated copper, solid: 14 to 8 AWG read as memory (REFERENCE_VALUES 2a, "memory, H");
-# 18 and 16 AWG from memory. Data for solid-conductor work; the calculator assumes stranding.
+# NEC Chapter 9 Table 8, uncoated copper, solid: 14 to 8 AWG and 18, 16 AWG from memory. Data
+# for solid-conductor work; the calculators assume stranding.
 NEC_TABLE8_CU_SOLID_75C = {
     "18 AWG": 7.77, "16 AWG": 4.89, "14 AWG": 3.07, "12 AWG": 1.93, "10 AWG": 1.21,
     "8 AWG": 0.764,
 }
 
 # IEC 60228 Table 2 (Class 2, stranded): maximum DC resistance at 20 °C [Ω/km]. 1.5 to 300 mm²
-# read (REFERENCE_VALUES 3); 0.75, 1 and 400 mm² from memory. IEC 60228 has no Class 2
-# aluminium conductor below 10 mm².
+# read, as reproduced; 0.75, 1 and 400 mm² from memory. IEC 60228 has no Class 2 aluminium
+# conductor below 10 mm².
 IEC60228_CLASS2_CU_20C = {
     "0.75 mm²": 24.5, "1 mm²": 18.1,  # from memory
     "1.5 mm²": 12.1, "2.5 mm²": 7.41, "4 mm²": 4.61, "6 mm²": 3.08, "10 mm²": 1.83,
@@ -76,7 +77,7 @@ IEC60228_CLASS2_AL_20C = {
     "240 mm²": 0.125, "300 mm²": 0.100,
     "400 mm²": 0.0778,  # from memory
 }
-# IEC 60228 Table 1 (Class 1, solid) copper where it differs from Class 2 (REFERENCE_VALUES 3).
+# IEC 60228 Table 1 (Class 1, solid) copper where it differs from Class 2 (read, as reproduced).
 IEC60228_CLASS1_CU_20C = {"185 mm²": 0.101, "240 mm²": 0.0775, "300 mm²": 0.0620}
 
 # Number of strands. ASTM B8 Class B concentric stranding, as NEC Chapter 9 Table 8 lists it
@@ -125,6 +126,7 @@ NEC_TABLE9_XL = {
     "4/0 AWG": (0.041, 0.051), "250 kcmil": (0.041, 0.052), "500 kcmil": (0.039, 0.048),
     "1000 kcmil": (0.037, 0.046),
 }
+TABLE9_FREQUENCY_HZ = 60.0  # the frequency NEC Chapter 9 Table 9 is given for
 
 RACEWAYS = (
     ("none", "None (free air, cable tray)"),
@@ -151,7 +153,7 @@ def _size_of(size):
 
 def _material(material):
     if material not in RESISTIVITY_20C:
-        raise InputError("material", material, "choose one of: cu (copper), al (aluminium)")
+        raise ParameterError("material", material, "choose one of: cu (copper), al (aluminium)")
     return material
 
 
@@ -160,32 +162,71 @@ def check_made(size, material):
 
     Parameters
     ----------
-    size : ConductorSize or str
-        Conductor size.
+    size : calc.units.ConductorSize or str
+        Conductor size ("12 AWG", "250 kcmil", "2.5 mm2").
     material : str
         "cu" or "al".
 
+    Returns
+    -------
+    None
+        When the size is made in the material.
+
     Raises
     ------
-    InputError
-        For a metric size below 10 mm² in aluminium (IEC 60228 has no Class 2 aluminium
-        conductor there); the message lists the aluminium sizes.
+    calc.errors.ParameterError
+        On `size` for a metric size below 10 mm² in aluminium (IEC 60228 has no Class 2
+        aluminium conductor there), listing the aluminium sizes; on `material` for a material
+        other than cu or al.
+
+    Notes
+    -----
+    AWG and kcmil sizes are made in both materials; metric aluminium sizes are those of
+    IEC 60228 Class 2.
+
+    References
+    ----------
+    IEC 60228, Table 2 (Class 2 conductors) — read, as reproduced.
 
     Examples
     --------
     >>> check_made("16 mm2", "al")
+    >>> try:
+    ...     check_made("2.5 mm2", "al")
+    ... except ParameterError as error:
+    ...     print(error.parameter, error.value)
+    size 2.5 mm²
     """
     size = _size_of(size)
     if _material(material) == "al" and size.system == "mm2" and (
         size.label not in IEC60228_CLASS2_AL_20C
     ):
         allowed = ", ".join(IEC60228_CLASS2_AL_20C)
-        raise InputError("size", size.label, f"{size.label} is not made in aluminium (IEC 60228 "
-                         f"Class 2); aluminium sizes: {allowed}")
+        raise ParameterError("size", size.label, f"{size.label} is not made in aluminium "
+                             f"(IEC 60228 Class 2); aluminium sizes: {allowed}")
 
 
 def strand_count(size):
-    """Number of strands of standard concentric stranding (Class B for AWG/kcmil, Class 2 mm²).
+    """Number of strands of standard concentric stranding.
+
+    Parameters
+    ----------
+    size : calc.units.ConductorSize or str
+        Conductor size.
+
+    Returns
+    -------
+    int
+        7, 19, 37 or 61: ASTM B8 Class B for AWG and kcmil, IEC 60228 Class 2 for mm².
+
+    Notes
+    -----
+    Looked up by the size's area in the bands of STRANDS_CLASS_B or STRANDS_CLASS_2.
+
+    References
+    ----------
+    ASTM B8 Class B, as NEC Chapter 9 Table 8 lists it; IEC 60228 Class 2 minimum strand
+    counts — both from memory.
 
     Examples
     --------
@@ -202,7 +243,7 @@ def conductor_diameter(size, strands=None):
 
     Parameters
     ----------
-    size : ConductorSize or str
+    size : calc.units.ConductorSize or str
         Conductor size; its nominal area A [m²].
     strands : int, optional
         1, 7, 19, 37 or 61; default the size's standard stranding.
@@ -217,6 +258,10 @@ def conductor_diameter(size, strands=None):
     n = 1 + 3k(k + 1) equal strands of diameter d_s = √(4A / (π n)) in k layers round a centre
     strand; the outer diameter is (2k + 1) d_s. For 7 strands that is 3 d_s.
 
+    References
+    ----------
+    Concentric-lay geometry as in ASTM B8 (from memory); computed, not a published figure.
+
     Examples
     --------
     >>> round(conductor_diameter("12 AWG") * 1e3, 3)
@@ -230,7 +275,19 @@ def conductor_diameter(size, strands=None):
 
 
 def geometric_mean_radius(size, strands=None):
-    """Geometric mean radius (GMR) of a round conductor [m].
+    """Geometric mean radius (GMR) of a round conductor.
+
+    Parameters
+    ----------
+    size : calc.units.ConductorSize or str
+        Conductor size.
+    strands : int, optional
+        1 (solid), 7, 19, 37 or 61; default the size's standard stranding.
+
+    Returns
+    -------
+    float
+        GMR [m].
 
     Notes
     -----
@@ -253,7 +310,27 @@ def geometric_mean_radius(size, strands=None):
 
 
 def insulated_diameter(size):
-    """Typical outer diameter over insulation [m]: THHN (AWG, kcmil) or PVC to IEC 60502-1 (mm²).
+    """Typical outer diameter over insulation: THHN (AWG, kcmil) or PVC to IEC 60502-1 (mm²).
+
+    Parameters
+    ----------
+    size : calc.units.ConductorSize or str
+        Conductor size.
+
+    Returns
+    -------
+    float
+        Diameter over insulation [m].
+
+    Notes
+    -----
+    D = d_c + 2 t, with t the insulation thickness of the size's band (INSULATION_NA_MM or
+    INSULATION_IEC_MM).
+
+    References
+    ----------
+    UL 83 (THHN/THWN-2 insulation thickness); IEC 60502-1 (PVC nominal thickness) — both from
+    memory.
 
     Examples
     --------
@@ -266,7 +343,7 @@ def insulated_diameter(size):
 
 
 def geometric_mean_distance(spacing, formation="trefoil"):
-    """Geometric mean distance between three phase conductors [m].
+    """Geometric mean distance between three phase conductors.
 
     Parameters
     ----------
@@ -275,9 +352,19 @@ def geometric_mean_distance(spacing, formation="trefoil"):
     formation : str
         "trefoil" (equilateral triangle) or "flat" (equally spaced in a row).
 
+    Returns
+    -------
+    float
+        GMD [m].
+
     Notes
     -----
     GMD = ∛(d_ab d_bc d_ca): s in trefoil, ∛2 s = 1.26 s flat.
+
+    References
+    ----------
+    J. D. Glover, M. S. Sarma, T. J. Overbye, Power System Analysis and Design, 5th ed.,
+    section 4.5 — from memory.
 
     Examples
     --------
@@ -292,11 +379,33 @@ def geometric_mean_distance(spacing, formation="trefoil"):
 def table_resistance(size, material):
     """The published DC resistance of a stranded conductor and how to correct it for temperature.
 
+    Parameters
+    ----------
+    size : calc.units.ConductorSize or str
+        Conductor size.
+    material : str
+        "cu" or "al".
+
     Returns
     -------
     tuple or None
         (resistance [Ω/m] at the reference temperature, reference temperature [°C], α referred to
         it [1/K], source text), or None when the table has no value for the size and material.
+
+    Raises
+    ------
+    calc.errors.ParameterError
+        On `material` for a material other than cu or al.
+
+    Notes
+    -----
+    AWG and kcmil: NEC Chapter 9 Table 8 at 75 °C with its note 2 α75; mm²: IEC 60228 Class 2
+    maximum at 20 °C with α20. The table gives Ω/kft (÷ 304.8 m) or Ω/km (÷ 1000 m).
+
+    References
+    ----------
+    NEC Chapter 9 Table 8 and its note 2 (read, as reproduced); IEC 60228 Table 2 (read, as
+    reproduced) and Annex B (from memory).
 
     Examples
     --------
@@ -323,7 +432,7 @@ def dc_resistance(size, material, temperature_c=20.0, method="physics"):
 
     Parameters
     ----------
-    size : ConductorSize or str
+    size : calc.units.ConductorSize or str
         Conductor size ("12 AWG", "250 kcmil", "2.5 mm2").
     material : str
         "cu" (annealed copper, 100 % IACS) or "al" (aluminium 1350, 61 % IACS).
@@ -340,8 +449,9 @@ def dc_resistance(size, material, temperature_c=20.0, method="physics"):
 
     Raises
     ------
-    InputError
-        For a size not made in the material, or "table" where the table has no value.
+    calc.errors.ParameterError
+        On `size` for a size not made in the material, on `material` for an unknown one, on
+        `method` for "table" where the table has no value.
 
     Notes
     -----
@@ -349,8 +459,9 @@ def dc_resistance(size, material, temperature_c=20.0, method="physics"):
 
     References
     ----------
-    IEC 60028 (copper resistivity); NEC Chapter 9 Table 8 and its note 2; IEC 60228 Table 2 and
-    Annex B.
+    IEC 60028 (copper resistivity; read, as reproduced in Agrawal, Industrial Power Engineering
+    and Applications Handbook, Table 30.1); NEC Chapter 9 Table 8 and its note 2 (read, as
+    reproduced); IEC 60228 Table 2 (read, as reproduced) and Annex B (from memory).
 
     Examples
     --------
@@ -363,8 +474,8 @@ def dc_resistance(size, material, temperature_c=20.0, method="physics"):
     if method == "table":
         entry = table_resistance(size, material)
         if entry is None:
-            raise InputError("method", method, f"no published table value for {size.label} "
-                             f"{MATERIAL_NAMES[material]}; choose physics")
+            raise ParameterError("method", method, f"no published table value for {size.label} "
+                                 f"{MATERIAL_NAMES[material]}; choose physics")
         resistance, reference_c, alpha, _ = entry
         return resistance * (1 + alpha * (temperature_c - reference_c))
     rho = RESISTIVITY_20C[material] * (1 + ALPHA_20C[material] * (temperature_c - 20.0))
@@ -378,7 +489,29 @@ def _effect_term(r_dc, frequency, k):
 
 
 def skin_argument(r_dc, frequency, k_s=K_SKIN):
-    """IEC 60287-1-1 clause 2.1.2 argument x_s = √(8πf / R' × 10⁻⁷ k_s) (R' in Ω/m).
+    """The argument x_s of the IEC 60287-1-1 skin-effect formula.
+
+    Parameters
+    ----------
+    r_dc : float
+        DC resistance at operating temperature R' [Ω/m].
+    frequency : float
+        Supply frequency [Hz].
+    k_s : float
+        Conductor-construction constant [-] (1 for round stranded).
+
+    Returns
+    -------
+    float
+        x_s [-]; the formula for y_s holds up to SKIN_X_LIMIT.
+
+    Notes
+    -----
+    x_s = √(8πf / R' × 10⁻⁷ k_s).
+
+    References
+    ----------
+    IEC 60287-1-1, clause 2.1.2 — from memory.
 
     Examples
     --------
@@ -396,14 +529,14 @@ def skin_effect_factor(r_dc, frequency, k_s=K_SKIN):
     r_dc : float
         DC resistance at operating temperature R' [Ω/m].
     frequency : float
-        [Hz]; 0 gives 0.
+        Supply frequency [Hz]; 0 gives 0.
     k_s : float
-        Conductor-construction constant (1 for round stranded).
+        Conductor-construction constant [-] (1 for round stranded).
 
     Returns
     -------
     float
-        y_s (R_ac = R' (1 + y_s + y_p)).
+        y_s [-] (R_ac = R' (1 + y_s + y_p)).
 
     Notes
     -----
@@ -427,15 +560,20 @@ def proximity_effect_factor(r_dc, frequency, diameter, spacing, k_p=K_PROXIMITY)
     Parameters
     ----------
     r_dc : float
-        R' [Ω/m].
+        DC resistance at operating temperature R' [Ω/m].
     frequency : float
-        [Hz].
+        Supply frequency [Hz].
     diameter : float
         Conductor diameter d_c [m].
     spacing : float
         Axial spacing s [m] (for flat formation √(s1 s2)).
     k_p : float
-        Construction constant (1 for round stranded, extruded insulation).
+        Construction constant [-] (1 for round stranded, extruded insulation).
+
+    Returns
+    -------
+    float
+        y_p [-].
 
     Notes
     -----
@@ -457,7 +595,21 @@ def proximity_effect_factor(r_dc, frequency, diameter, spacing, k_p=K_PROXIMITY)
 
 
 def series_reactance(frequency, gmd, gmr):
-    """Series (positive-sequence) reactance per conductor of a three-phase line [Ω/m].
+    """Series (positive-sequence) reactance per conductor of a three-phase line.
+
+    Parameters
+    ----------
+    frequency : float
+        Supply frequency [Hz].
+    gmd : float
+        Geometric mean distance between the phase conductors [m].
+    gmr : float
+        Geometric mean radius of one conductor [m].
+
+    Returns
+    -------
+    float
+        Reactance [Ω/m].
 
     Notes
     -----
@@ -476,33 +628,37 @@ def series_reactance(frequency, gmd, gmr):
     return 2 * math.pi * frequency * MU0_OVER_2PI * math.log(gmd / gmr)
 
 
-def effective_impedance(resistance, reactance, power_factor=POWER_FACTOR_NEC):
-    """Effective impedance Z = R cos θ + X sin θ (NEC Chapter 9 Table 9, note 2).
+def effective_impedance(r_per_m, x_per_m, power_factor=POWER_FACTOR_NEC):
+    """Effective impedance of a conductor for voltage drop at a given power factor.
+
+    Parameters
+    ----------
+    r_per_m : float
+        AC resistance per metre [Ω/m] (a whole run's [Ω] works the same way).
+    x_per_m : float
+        Series reactance per metre [Ω/m].
+    power_factor : float
+        Load power factor, lagging [-]; NEC Chapter 9 Table 9 uses 0.85.
+
+    Returns
+    -------
+    float
+        Z_eff in the unit of the arguments [Ω/m].
+
+    Notes
+    -----
+    Z = R cos θ + X sin θ.
+
+    References
+    ----------
+    NEC Chapter 9 Table 9, note 2 (read, as quoted).
 
     Examples
     --------
     >>> round(effective_impedance(1.0, 1.0, 0.85), 4)
     1.3768
     """
-    return resistance * power_factor + reactance * math.sin(math.acos(power_factor))
-
-
-def _per_length(value, metric):
-    """Ω/m shown as the trade reads it: Ω/kft first for AWG/kcmil, Ω/km first for mm²."""
-    kft = f"{fq(value * METRES_PER_KFT, '')} Ω/kft"
-    km = fq(value, "ohm/m")
-    return f"{km} ({kft})" if metric else f"{kft} ({km})"
-
-
-def _geometry(size, raceway, spacing):
-    """(axial spacing [m], its description) for touching conductors or the given spacing."""
-    if spacing is not None:
-        return spacing, f"given axial spacing {fq(spacing, 'm')} (trefoil)"
-    touching = insulated_diameter(size)
-    insulation = "PVC (IEC 60502-1)" if size.system == "mm2" else "THHN"
-    where = "in the raceway" if raceway != "none" else "(no spacing given)"
-    return touching, (f"touching conductors {where}: typical {insulation} outer diameter "
-                      f"{fq(touching, 'm')} (trefoil)")
+    return r_per_m * power_factor + x_per_m * math.sin(math.acos(power_factor))
 
 
 def _table9_reactance(size, raceway, frequency, spacing):
@@ -510,7 +666,8 @@ def _table9_reactance(size, raceway, frequency, spacing):
     table9 = NEC_TABLE9_XL.get(size.label)
     if table9 is None or raceway == "none" or spacing is not None or frequency <= 0:
         return None
-    return table9[1 if raceway == "steel" else 0] / METRES_PER_KFT * frequency / 60.0
+    return (table9[1 if raceway == "steel" else 0] / METRES_PER_KFT * frequency
+            / TABLE9_FREQUENCY_HZ)
 
 
 class ConductorImpedance(NamedTuple):
@@ -519,36 +676,36 @@ class ConductorImpedance(NamedTuple):
     r_dc: float  # by the chosen method [Ω/m]
     r_ac: float  # [Ω/m]
     x: float  # by the chosen method [Ω/m]
-    r_dc_physics: float
-    r_dc_table: float | None  # None where the table has no entry
-    x_geometry: float
-    x_table9: float | None  # NEC Table 9 XL, for conductors in conduit at no given spacing
-    x_s: float
-    y_s: float
-    y_p: float
+    r_dc_physics: float  # [Ω/m]
+    r_dc_table: float | None  # [Ω/m]; None where the table has no entry
+    x_geometry: float  # [Ω/m]
+    x_table9: float | None  # NEC Table 9 XL [Ω/m], for conductors in conduit at no given spacing
+    x_s: float  # IEC 60287-1-1 skin argument [-]
+    y_s: float  # skin-effect factor [-]
+    y_p: float  # proximity-effect factor [-]
     diameter: float  # conductor [m]
     spacing: float  # axial [m]
-    gmr: float
-    gmd: float
-    geometry_text: str
+    gmr: float  # [m]
+    gmd: float  # [m]
 
 
-def impedance(size, material, temperature_c, frequency_hz, raceway="pvc", spacing_m=None,
+def impedance(size, material, temperature_c, frequency, raceway="pvc", spacing=None,
               method="physics"):
     """Resistance and reactance per metre of one conductor, the way every run calculator needs.
 
     Parameters
     ----------
     size : calc.units.ConductorSize or str
+        Conductor size.
     material : str
         "cu" or "al".
     temperature_c : float
         Conductor temperature [°C].
-    frequency_hz : float
-        0 for DC.
+    frequency : float
+        Supply frequency [Hz]; 0 for DC.
     raceway : str
         "none", "pvc", "aluminum" or "steel".
-    spacing_m : float or None
+    spacing : float or None
         Axial spacing in trefoil [m]; None means touching conductors.
     method : str
         "physics", or "table" (NEC Table 8 / IEC 60228 resistance, NEC Table 9 reactance).
@@ -556,31 +713,50 @@ def impedance(size, material, temperature_c, frequency_hz, raceway="pvc", spacin
     Returns
     -------
     ConductorImpedance
+        R_dc, R_ac and X [Ω/m] and the figures they were found from.
 
     Raises
     ------
-    calc.errors.InputError
-        For a size not made in the material, a table with no entry, or a spacing smaller than
-        the conductor.
+    calc.errors.ParameterError
+        On `size` for a size not made in the material, on `method` for a table with no entry,
+        on `spacing` for a spacing smaller than the conductor.
+
+    Notes
+    -----
+    R_ac = R_dc [1 + k (y_s + y_p)] (k = 1.5 in steel conduit, else 1);
+    X = k_X × 2πf × 2×10⁻⁷ ln(GMD / GMR) (k_X = 1.25 in steel conduit), or NEC Table 9's XL × f /
+    60 Hz by the table method for conductors in conduit.
+
+    References
+    ----------
+    IEC 60287-1-1, clauses 2.1.2 and 2.1.4 (from memory); Glover, Sarma & Overbye, Power System
+    Analysis and Design, 5th ed., section 4.5 (from memory); NEC Chapter 9 Tables 8 and 9.
+
+    Examples
+    --------
+    >>> z = impedance("12 AWG", "cu", 75.0, 60.0)
+    >>> round(z.r_ac * 1e3, 4), round(z.x * 1e3, 4)
+    (6.4639, 0.1026)
     """
     size = _size_of(size)
     check_made(size, material)
     diameter = conductor_diameter(size)
-    spacing, geometry_text = _geometry(size, raceway, spacing_m)
+    given_spacing = spacing
+    spacing = insulated_diameter(size) if given_spacing is None else given_spacing  # touching
     if spacing < diameter:
-        raise InputError("spacing_m", spacing_m,
-                         f"{spacing * 1e3:.3g} mm is less than the conductor diameter "
-                         f"{diameter * 1e3:.3g} mm; enter the centre-to-centre spacing")
+        raise ParameterError("spacing", given_spacing,
+                             f"{spacing * 1e3:.3g} mm is less than the conductor diameter "
+                             f"{diameter * 1e3:.3g} mm; enter the centre-to-centre spacing")
     entry = table_resistance(size, material)
     if method == "table" and entry is None:
-        dc_resistance(size, material, temperature_c, "table")  # raises the field error
+        dc_resistance(size, material, temperature_c, "table")  # raises the method error
     r_physics = dc_resistance(size, material, temperature_c, "physics")
     r_table = dc_resistance(size, material, temperature_c, "table") if entry else None
     r_dc = r_table if method == "table" else r_physics
-    if frequency_hz > 0:
-        x_s = skin_argument(r_dc, frequency_hz)
-        y_s = skin_effect_factor(r_dc, frequency_hz)
-        y_p = proximity_effect_factor(r_dc, frequency_hz, diameter, spacing)
+    if frequency > 0:
+        x_s = skin_argument(r_dc, frequency)
+        y_s = skin_effect_factor(r_dc, frequency)
+        y_p = proximity_effect_factor(r_dc, frequency, diameter, spacing)
     else:
         x_s = y_s = y_p = 0.0
     ac_factor = STEEL_CONDUIT_AC_FACTOR if raceway == "steel" else 1.0
@@ -588,206 +764,8 @@ def impedance(size, material, temperature_c, frequency_hz, raceway="pvc", spacin
     gmr = geometric_mean_radius(size)
     gmd = geometric_mean_distance(spacing)
     x_factor = STEEL_CONDUIT_X_FACTOR if raceway == "steel" else 1.0
-    x_geometry = x_factor * series_reactance(frequency_hz, gmd, gmr)
-    x_table9 = _table9_reactance(size, raceway, frequency_hz, spacing_m)
+    x_geometry = x_factor * series_reactance(frequency, gmd, gmr)
+    x_table9 = _table9_reactance(size, raceway, frequency, given_spacing)
     x = x_table9 if method == "table" and x_table9 is not None else x_geometry
     return ConductorImpedance(r_dc, r_ac, x, r_physics, r_table, x_geometry, x_table9, x_s, y_s,
-                              y_p, diameter, spacing, gmr, gmd, geometry_text)
-
-
-def _conductor_view(inputs):
-    size = inputs["size"]
-    material = inputs["material"]
-    temperature = inputs["temperature_c"]
-    frequency = inputs["frequency_hz"]
-    raceway = inputs["raceway"]
-    method = inputs["method"]
-    metric = size.system == "mm2"
-    name = MATERIAL_NAMES[material]
-    result = Result()
-
-    z = impedance(size, material, temperature, frequency, raceway, inputs["spacing_m"], method)
-    diameter, spacing, geometry_text = z.diameter, z.spacing, z.geometry_text
-    r_physics, r_table, r_dc, r_ac = z.r_dc_physics, z.r_dc_table, z.r_dc, z.r_ac
-    x_s, y_s, y_p, x, x_geometry, x_table9 = z.x_s, z.y_s, z.y_p, z.x, z.x_geometry, z.x_table9
-    gmr, gmd = z.gmr, z.gmd
-    entry = table_resistance(size, material)
-    z = effective_impedance(r_ac, x)
-
-    area_display = fq(size.area_m2, "m2")
-    if not metric:
-        area_display += f" ({size.area_m2 / units.CIRCULAR_MIL_M2:.0f} cmil)"
-    result.output("area", size.area_m2, area_display)
-    result.output("r_dc", r_dc, _per_length(r_dc, metric))
-    result.output("r_ac", r_ac, _per_length(r_ac, metric))
-    result.output("x", x, _per_length(x, metric))
-    if r_table is not None:
-        result.output("r_dc_table", r_table, _per_length(r_table, metric))
-    result.output("z_085", z, _per_length(z, metric))
-
-    # Steps
-    t = fq(temperature, "degC")
-    alpha20 = ALPHA_20C[material]
-    rho20 = RESISTIVITY_20C[material] * 1e6
-    result.step(f"Area of {size.label}" + (" (ASTM B258)" if size.system == "awg" else ""),
-                "A", f"= {area_display}")
-    result.step(f"DC resistance from resistivity ({name}, lay factor {LAY_FACTOR_STRANDED})",
-                "R = ρ20 [1 + α20 (T − 20)] / A × k_lay",
-                f"= {rho20:.6g} Ω·mm²/m × [1 + {alpha20} × ({temperature:g} − 20)] / "
-                f"{size.area_m2 * 1e6:.4g} mm² × {LAY_FACTOR_STRANDED} = "
-                f"{_per_length(r_physics, metric)}")
-    if entry is not None:
-        r_ref, t_ref, alpha_ref, source = entry
-        result.step(f"DC resistance from the table: {source}",
-                    "R = R_ref [1 + α (T − T_ref)]",
-                    f"= {_per_length(r_ref, metric)} × [1 + {alpha_ref} × ({temperature:g} − "
-                    f"{t_ref:g})] = {_per_length(r_table, metric)}")
-    if frequency > 0:
-        result.step("Skin effect (IEC 60287-1-1 2.1.2)",
-                    "x_s² = 8πf / R' × 10⁻⁷; y_s = x_s⁴ / (192 + 0.8 x_s⁴)",
-                    f"x_s = {x_s:.3g}; y_s = {y_s:.3g}")
-        result.step(f"Proximity effect (IEC 60287-1-1 2.1.4), d_c = {fq(diameter, 'm')}, "
-                    f"s = {fq(spacing, 'm')}",
-                    "y_p = F (d_c/s)² [0.312 (d_c/s)² + 1.18 / (F + 0.27)]", f"y_p = {y_p:.3g}")
-        steel = f" × {STEEL_CONDUIT_AC_FACTOR} (steel conduit)" if raceway == "steel" else ""
-        result.step("AC resistance", "R_ac = R_dc [1 + k (y_s + y_p)]",
-                    f"= {_per_length(r_dc, metric)} × [1 + ({y_s:.3g} + {y_p:.3g}){steel}] = "
-                    f"{_per_length(r_ac, metric)}")
-        if method == "table" and x_table9 is not None:
-            result.step("Series reactance from NEC Chapter 9 Table 9 (method table)",
-                        "X = XL_Table9 × f / 60 Hz", f"= {_per_length(x, metric)}")
-        steel_x = f" × {STEEL_CONDUIT_X_FACTOR}" if raceway == "steel" else ""
-        result.step(f"Series reactance: GMR = {GMR_FRACTION[strand_count(size)]:.4g} r "
-                    f"({strand_count(size)} strands) = {gmr * 1e3:.4g} mm; "
-                    f"GMD = {gmd * 1e3:.4g} mm",
-                    "X = 2πf × 2×10⁻⁷ × ln(GMD / GMR)" + steel_x,
-                    f"= 2π × {frequency:g} Hz × 2×10⁻⁷ × ln({gmd * 1e3:.4g} / {gmr * 1e3:.4g})"
-                    f"{steel_x} = {_per_length(x_geometry, metric)}")
-    else:
-        result.step("DC (0 Hz): no skin or proximity effect and no reactance", "R_ac = R_dc; X = 0",
-                    f"= {_per_length(r_ac, metric)}")
-    result.step("Effective impedance at 0.85 power factor (NEC Chapter 9 Table 9 note 2)",
-                "Z = R_ac cos θ + X sin θ, cos θ = 0.85",
-                f"= {_per_length(r_ac, metric)} × 0.85 + {_per_length(x, metric)} × 0.527 = "
-                f"{_per_length(z, metric)}")
-
-    # Checks
-    if r_table is not None:
-        ratio = r_physics / r_table
-        if metric:
-            ok = 0.88 <= ratio <= 1.0
-            result.check("table_agreement", "pass" if ok else "warn",
-                         f"Physics gives {ratio:.1%} of the IEC 60228 maximum; a conforming "
-                         "conductor lies below that maximum (expected 88–100 %). IEC 60228 "
-                         "(the maximum) and the maker's data are the basis for compliance.")
-        else:
-            ok = abs(ratio - 1) <= 0.03
-            result.check("table_agreement", "pass" if ok else "warn",
-                         f"Physics and NEC Chapter 9 Table 8 differ by {ratio - 1:+.1%} (pass "
-                         "within 3 %). NEC Table 8 is the basis the code uses for NEC "
-                         "calculations.")
-    if frequency > 0:
-        valid = x_s <= SKIN_X_LIMIT
-        result.check("skin_effect_validity", "pass" if valid else "warn",
-                     f"x_s = {x_s:.3g}; the IEC 60287-1-1 skin formula holds for x_s ≤ "
-                     f"{SKIN_X_LIMIT}" + ("." if valid else "; beyond it use an exact (Bessel) "
-                                          "solution or the maker's AC resistance."))
-    if x_table9 is not None:
-        effect = effective_impedance(r_ac, x_geometry) / effective_impedance(r_ac, x_table9) - 1
-        used = "Table 9's XL is used (method table)" if method == "table" else (
-            "the geometric X is used; choose method table to use Table 9's")
-        status = "pass" if method == "table" or abs(effect) <= 0.05 else "warn"
-        result.check("table9_reactance", status,
-                     f"NEC Chapter 9 Table 9 lists XL = {_per_length(x_table9, metric)} "
-                     f"(scaled to {frequency:g} Hz); touching-conductor geometry gives "
-                     f"{_per_length(x_geometry, metric)} ({x_geometry / x_table9 - 1:+.0%}). "
-                     "Table 9 assumes RHH conductors in cradled configuration. Effect on Z at "
-                     f"0.85 pf: {effect:+.1%} (warn beyond 5 % if the geometry is used); "
-                     f"{used}. For NEC voltage drop Table 9 is the usual basis.")
-
-    result.assumptions += [
-        f"Concentric stranded {name} conductor, {strand_count(size)} strands "
-        + ("(IEC 60228 Class 2)." if metric else "(ASTM B8 Class B)."),
-        f"Lay (stranding) factor {LAY_FACTOR_STRANDED} on ρ/A (common practice).",
-        f"Three phase conductors in trefoil; {geometry_text}. A flat formation has "
-        "GMD = 1.26 × spacing.",
-        "Temperature is the conductor temperature; resistance is linear in temperature with "
-        "the stated α.",
-    ]
-    if raceway == "steel":
-        result.assumptions.append(
-            f"Steel conduit: X × {STEEL_CONDUIT_X_FACTOR} (NEC Chapter 9 Table 9 steel vs PVC "
-            f"columns, from memory) and (y_s + y_p) × {STEEL_CONDUIT_AC_FACTOR} (IEC 60287-1-1 "
-            "pipe-type cables, from memory).")
-    if raceway == "aluminum":
-        result.assumptions.append(
-            "Aluminium conduit is non-magnetic: treated as PVC. NEC Table 9 lists slightly "
-            "higher AC resistance in aluminium conduit for large sizes (induced conduit "
-            "currents); that is not modelled.")
-    result.sources += [
-        "Resistivity and α: IEC 60028 (copper, 1/58 Ω·mm²/m, 0.00393 /K); IEC 60889 "
-        "(aluminium 1350, 0.028264 Ω·mm²/m, 0.00403 /K) — from memory.",
-        "NEC Chapter 9 Table 8 (DC resistance at 75 °C) and Table 9 (AC resistance and "
-        "reactance, 60 Hz, 75 °C); IEC 60228 Tables 1 and 2 and Annex B.",
-        "Skin and proximity effect: IEC 60287-1-1 clauses 2.1.2 and 2.1.4 — from memory.",
-        "GMR and X = 2πf 2×10⁻⁷ ln(GMD/GMR): Glover, Sarma & Overbye, Power System Analysis "
-        "and Design, 5th ed., section 4.5, Table A.3 — from memory.",
-        "Insulation thickness for touching conductors: UL 83 (THHN), IEC 60502-1 (PVC) — "
-        "from memory.",
-    ]
-    result.cautions += [
-        "Ampacity, the insulation's temperature rating, termination ratings and derating for "
-        "grouping or ambient temperature are not checked here; size conductors by your code.",
-    ]
-    result.cautions += list(cautions.COMMON)
-
-    low, high = min(-20.0, temperature), max(120.0, temperature)
-    temperatures = [low + (high - low) * k / 28 for k in range(29)]
-    curve = "table" if method == "table" else "physics"
-    result.series = {
-        "title": f"Resistance of {size.label} {name} against temperature",
-        "x": {"label": "Conductor temperature", "unit": "°C", "values": temperatures},
-        "y_axis": {"label": "DC resistance", "unit": "Ω/km"},
-        "y": [{"label": f"DC resistance ({curve})", "unit": "Ω/km",
-               "values": [dc_resistance(size, material, t_c, curve) * 1e3
-                          for t_c in temperatures]}],
-        "marks": [{"axis": "x", "value": temperature, "label": f"{t}"}],
-    }
-    return result
-
-
-CONDUCTOR = Calculator(
-    id="conductor",
-    title="Conductor resistance and reactance",
-    summary="DC and AC resistance, series reactance and effective impedance of one conductor "
-            "by size, material, temperature, frequency and raceway.",
-    group="Conductors",
-    inputs=(
-        Input("size", "Conductor size", "size", default="12 AWG",
-              region_defaults={"iec": "2.5 mm²"},
-              help="AWG, kcmil or mm², e.g. 12 AWG, 4/0, 250 kcmil, 2.5 mm²."),
-        Input("material", "Material", "choice", default="cu",
-              choices=(("cu", "Copper"), ("al", "Aluminium"))),
-        Input("temperature_c", "Conductor temperature", "quantity", unit="degC", default=75,
-              minimum=-40, maximum=250, region_defaults={"iec": 70},
-              help="Operating temperature of the conductor (75 °C NEC tables, 70 °C PVC)."),
-        Input("frequency_hz", "Frequency", "quantity", unit="Hz", default=60, minimum=0,
-              maximum=400, region_defaults={"iec": 50}, help="0 Hz means DC."),
-        Input("raceway", "Raceway", "choice", default="pvc", choices=RACEWAYS,
-              help="Steel conduit raises reactance and AC resistance."),
-        Input("spacing_m", "Conductor spacing", "quantity", unit="m", optional=True, minimum=0,
-              min_exclusive=True, maximum=10,
-              help="Centre-to-centre spacing in trefoil; blank means touching conductors."),
-        Input("method", "Resistance method", "choice", default="physics", choices=METHODS,
-              help="Physics from resistivity, or the published table (NEC Table 8, IEC 60228)."),
-    ),
-    outputs=(
-        Output("area", "Cross-section", "m²"),
-        Output("r_dc", "DC resistance", "Ω/m"),
-        Output("r_ac", "AC resistance", "Ω/m"),
-        Output("x", "Series reactance", "Ω/m"),
-        Output("r_dc_table", "DC resistance, published table", "Ω/m"),
-        Output("z_085", "Effective impedance at 0.85 pf", "Ω/m"),
-    ),
-    compute=_conductor_view,
-)
+                              y_p, diameter, spacing, gmr, gmd)

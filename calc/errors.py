@@ -1,4 +1,10 @@
-"""Errors raised by calc/: every one is a ValueError whose message a technician can act on."""
+"""Errors raised by calc/: every one is a ValueError whose message a technician can act on.
+
+Physics modules raise errors that name their own parameter, never a form field; a calculator
+view attaches the field with `field_error` (or by catching and raising InputError itself).
+"""
+
+import contextlib
 
 
 class CalcError(ValueError):
@@ -48,3 +54,56 @@ class InputErrors(CalcError):
     def __init__(self, errors):
         self.errors = list(errors)
         super().__init__("; ".join(str(e) for e in self.errors))
+
+
+class ParameterError(CalcError):
+    """A physics function was given a value it does not accept (an unknown table key, a value
+    outside the function's domain).
+
+    Parameters
+    ----------
+    parameter : str
+        The function's own parameter name ("code_letter", "material"); not a form field.
+    value : object
+        The value received.
+    message : str
+        What is wrong and what is allowed.
+    """
+
+    def __init__(self, parameter, value, message):
+        super().__init__(message)
+        self.parameter = parameter
+        self.value = value
+        self.message = message
+
+
+class VoltageCollapse(CalcError):
+    """A run cannot deliver its load: no steady load-end voltage exists (too long or too thin)."""
+
+
+class PathError(CalcError):
+    """A supply path cannot be solved: no steady state (voltage collapse) or not connected."""
+
+
+@contextlib.contextmanager
+def field_error(field, value=None):
+    """Re-raise a ParameterError or UnitError from the block as an InputError on `field`.
+
+    The view names the form field; the physics error keeps its own message. `value` defaults to
+    the value the physics function received.
+
+    Examples
+    --------
+    >>> try:
+    ...     with field_error("code_letter"):
+    ...         raise ParameterError("letter", "Z", "Z is not a NEMA code letter")
+    ... except InputError as error:
+    ...     print(error.field, error.value, error.message)
+    code_letter Z Z is not a NEMA code letter
+    """
+    try:
+        yield
+    except ParameterError as error:
+        raise InputError(field, error.value if value is None else value, error.message) from None
+    except UnitError as error:
+        raise InputError(field, value, str(error)) from None

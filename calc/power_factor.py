@@ -1,6 +1,5 @@
-"""Power-factor correction: capacitor kvar, capacitance and current for a target power factor,
-the line-current and loss reduction, and the bank's parallel resonance with the supply, with
-detuning reactors.
+"""Power-factor correction: the capacitors' reactive power and capacitance for a target power
+factor, and the bank's parallel resonance with the supply, with and without a detuning reactor.
 
 Quantities follow the nomenclature page: power [W], reactive_power [var], apparent_power [VA],
 voltage [V] line-to-line for three-phase, current [A], frequency [Hz], capacitance [F],
@@ -9,11 +8,8 @@ power_factor [-], percentages [%].
 
 import math
 
-from calc import cautions
-from calc.errors import InputError
-from calc.spec import Calculator, Input, Output, Result
-from calc.transformers import full_load_current, source_impedance_pct
-from calc.units import format_quantity as fq
+from calc.errors import ParameterError
+from calc.transformers import source_impedance_pct
 
 TWO_PI = 2.0 * math.pi
 
@@ -21,37 +17,45 @@ TWO_PI = 2.0 * math.pi
 # IEEE Std 519-2014, clause 3 / Table 2 context — from memory.
 SIX_PULSE_HARMONICS = (5, 7, 11, 13)
 
-# A parallel resonance within ±10 % of a harmonic present in the load is treated as being on it
-# — common practice (the resonance is broad: Q of a few to ten on LV systems).
-RESONANCE_BAND = 0.10
-
-# Detuning factors offered by reactor makers, p = X_L/X_C at the fundamental, and the one
-# suggested when none is entered: 7 % tunes to 3.78 × f1 (189 Hz at 50 Hz), below the 5th.
-# REFERENCE_VALUES section 9 (textbook, read for 7 % → 189 Hz; tuning orders computed).
+# Detuning factors offered by reactor makers, p = X_L/X_C at the fundamental: 7 % tunes to
+# n = 1/√p = 3.78 × f1 (189 Hz at 50 Hz), below the 5th. The relation n = 1/√p: textbook (read
+# for 7 % → 189 Hz at 50 Hz); the tuning orders computed from it.
 DETUNING_FACTORS = (0.05, 0.0567, 0.06, 0.07, 0.08, 0.14)
-SUGGESTED_DETUNING_PCT = 7.0
-
-# Switching a bank step in should move the bus voltage by no more than a few percent; above
-# this the step is large for the supply — common practice.
-VOLTAGE_RISE_LIMIT_PCT = 3.0
 
 # IEEE Std 18-2012: capacitors may operate continuously up to 110 % of rated rms voltage,
-# 120 % of rated peak voltage, 135 % of nominal rms current and 135 % of rated kvar (read).
+# 120 % of rated peak voltage, 135 % of nominal rms current and 135 % of rated reactive power
+# (read).
 IEEE18_RMS_VOLTAGE = 1.10
 IEEE18_CURRENT = 1.35
 
 # NEC 460.8(A): conductors to a capacitor at least 135 % of its rated current (from memory).
 NEC_460_8_FACTOR = 1.35
 
-# Targets above this risk a leading power factor when the load drops — common practice.
-HIGH_TARGET_PF = 0.98
-
-SENSES = (("lagging", "Lagging (inductive: motors, transformers)"),
-          ("leading", "Leading (capacitive)"))
+# The ways a bank's capacitors are connected.
+CONNECTIONS = ("wye", "delta", "single")
 
 
 def tan_phi(power_factor):
-    """tan φ = Q/P for a power factor cos φ in (0, 1].
+    """The ratio of reactive to real power of a load with a given power factor.
+
+    Parameters
+    ----------
+    power_factor : float
+        cos φ [-], in (0, 1].
+
+    Returns
+    -------
+    float
+        tan φ = Q/P [-].
+
+    Notes
+    -----
+    tan φ = √(1 − cos² φ) / cos φ, written as √((1 − pf)(1 + pf)) / pf to keep its digits near
+    unity.
+
+    References
+    ----------
+    IEEE Std 141-1993 (Red Book), ch. 8 (the power triangle) — from memory.
 
     Examples
     --------
@@ -61,36 +65,43 @@ def tan_phi(power_factor):
     return math.sqrt((1.0 - power_factor) * (1.0 + power_factor)) / power_factor
 
 
-def capacitor_kvar(power, pf_now, pf_target):
-    """Reactive power the capacitors must supply to raise a lagging load's power factor [var].
+def capacitor_reactive_power(power, pf_now, pf_target):
+    """Reactive power the capacitors must supply to raise a lagging load's power factor.
 
     Parameters
     ----------
     power : float
         Real power of the load [W].
-    pf_now, pf_target : float
-        Present and wanted power factors, both lagging, pf_now ≤ pf_target ≤ 1.
+    pf_now : float
+        Present power factor [-], lagging.
+    pf_target : float
+        Wanted power factor [-], lagging, pf_now ≤ pf_target ≤ 1.
 
     Returns
     -------
     float
-        Q_c = P (tan φ1 − tan φ2) [var].
+        Q_c [var].
+
+    Notes
+    -----
+    Q_c = P (tan φ1 − tan φ2): the real power stays, the reactive power falls from P tan φ1 to
+    P tan φ2.
 
     References
     ----------
     IEEE Std 141-1993 (Red Book), ch. 8, the table of kW multipliers for power-factor
-    correction — from memory; the formula is REFERENCE_VALUES section 9 (textbook, read).
+    correction — from memory; the formula is the textbook one (read).
 
     Examples
     --------
-    >>> round(capacitor_kvar(100e3, 0.75, 0.95))
+    >>> round(capacitor_reactive_power(100e3, 0.75, 0.95))
     55323
     """
     return power * (tan_phi(pf_now) - tan_phi(pf_target))
 
 
-def capacitance_per_phase(reactive_power, voltage, frequency, connection):
-    """Capacitance of each of the bank's capacitors [F].
+def capacitance_per_phase(reactive_power, voltage, frequency, bank_connection):
+    """Capacitance of each of the bank's capacitors.
 
     Parameters
     ----------
@@ -99,87 +110,140 @@ def capacitance_per_phase(reactive_power, voltage, frequency, connection):
     voltage : float
         System voltage [V], line-to-line for three-phase.
     frequency : float
-        [Hz].
-    connection : str
+        Supply frequency [Hz].
+    bank_connection : str
         "wye" (three capacitors line-to-neutral), "delta" (three line-to-line) or "single".
 
     Returns
     -------
     float
-        Wye: Q/(2πf V²); delta: Q/(3 × 2πf V²); single-phase: Q/(2πf V²).
+        C [F] of each capacitor.
+
+    Raises
+    ------
+    ParameterError
+        For a bank_connection that is not one of CONNECTIONS.
+
+    Notes
+    -----
+    Wye: C = Q/(2πf V²) (each capacitor takes Q/3 at V/√3); delta: C = Q/(3 × 2πf V²);
+    single-phase: C = Q/(2πf V²).
+
+    References
+    ----------
+    Textbook relation Q = 2πf C V², computed; IEEE Std 141-1993 (Red Book), ch. 8 — from memory.
 
     Examples
     --------
     >>> round(capacitance_per_phase(10e3, 240.0, 60.0, "single") * 1e6, 1)
     460.5
     """
-    per_capacitor = reactive_power / 3.0 if connection == "delta" else reactive_power
+    if bank_connection not in CONNECTIONS:
+        raise ParameterError("bank_connection", bank_connection,
+                             f"{bank_connection!r} is not one of {', '.join(CONNECTIONS)}")
+    per_capacitor = reactive_power / 3.0 if bank_connection == "delta" else reactive_power
     return per_capacitor / (TWO_PI * frequency * voltage * voltage)
 
 
-def short_circuit_power(xfmr_va=None, xfmr_z_pct=None, source_va=None):
-    """Short-circuit power at the bank [VA]: the transformer's, the source's, or both in series.
+def bus_short_circuit_power(transformer_rating=None, transformer_impedance_pct=None,
+                            source_short_circuit_power=None):
+    """Short-circuit power at a capacitor bank's bus: the transformer's, the source's, or both.
 
     Parameters
     ----------
-    xfmr_va : float or None
-        Transformer rating [VA] ...
-    xfmr_z_pct : float or None
-        ... and its impedance [%].
-    source_va : float or None
-        Fault level of the supply ahead of the transformer, or at the bank when there is no
-        transformer entered [VA]; None with a transformer is an infinite source.
+    transformer_rating : float or None
+        Rating of the transformer feeding the bus [VA]; None when only the source is known.
+    transformer_impedance_pct : float or None
+        Its impedance [%] (needed with a rating).
+    source_short_circuit_power : float or None
+        Short-circuit power of the supply ahead of the transformer, or at the bus when there is
+        no transformer [VA]; None with a transformer is an infinite source.
 
     Returns
     -------
-    float
-        S_sc = 100 S_T / (%Z_T + %Z_S), %Z_S = 100 S_T / S_source (the finite-source method of
-        calc.transformers); the source's fault level alone when no transformer is given.
+    float or None
+        S_sc at the bus [VA] (None when neither is given).
+
+    Notes
+    -----
+    S_sc = 100 S_T / (%Z_T + %Z_S), %Z_S = 100 S_T / S_source (transformers.source_impedance_pct,
+    the finite-source method); the source's level alone when no transformer is given.
+
+    References
+    ----------
+    S_sc = 100 S_T/Z% on an infinite source: the IEEE Std 141 (Red Book) method, textbook
+    (read). The finite source: the IAEI Magazine article transformers.source_impedance_pct
+    cites (read).
 
     Examples
     --------
-    >>> round(short_circuit_power(500e3, 5.75) / 1e3)
+    >>> round(bus_short_circuit_power(500e3, 5.75) / 1e3)
     8696
+    >>> round(bus_short_circuit_power(500e3, 5.75, 50e6) / 1e3)
+    7407
     """
-    if xfmr_va is None:
-        return source_va
-    source_pct = 0.0 if source_va is None else source_impedance_pct(xfmr_va, source_va)
-    return 100.0 * xfmr_va / (xfmr_z_pct + source_pct)
+    if transformer_rating is None:
+        return source_short_circuit_power
+    source_pct = (0.0 if source_short_circuit_power is None
+                  else source_impedance_pct(transformer_rating, source_short_circuit_power))
+    return 100.0 * transformer_rating / (transformer_impedance_pct + source_pct)
 
 
-def resonance_order(short_circuit_va, reactive_power, detuning=0.0):
-    """Harmonic order of the parallel resonance between the supply and the bank.
+def resonance_order(short_circuit_power, reactive_power, detuning=0.0):
+    """Harmonic order of the parallel resonance between the supply and a capacitor bank.
 
     Parameters
     ----------
-    short_circuit_va : float
+    short_circuit_power : float
         S_sc at the bank [VA].
     reactive_power : float
         The bank's output at the fundamental [var].
     detuning : float
-        p = X_L/X_C of a series (detuning) reactor, 0 for a plain bank.
+        p = X_L/X_C of a series (detuning) reactor [-], 0 for a plain bank.
 
     Returns
     -------
     float
-        Plain bank: h = √(S_sc/Q_c) = √(X_C/X_s). Detuned: the supply and the bank's own
-        reactor both face X_C: h = 1/√(p + (1 − p) Q_c/S_sc).
+        h [-]: the resonant frequency over the fundamental.
+
+    Notes
+    -----
+    Plain bank: h = √(S_sc/Q_c) = √(X_C/X_s). Detuned: the supply and the bank's own reactor
+    both face X_C: h = 1/√(p + (1 − p) Q_c/S_sc).
 
     References
     ----------
-    IEEE Std 1531 and IEEE Std 519 application guidance, h_r ≈ √(S_sc/Q_c) (REFERENCE_VALUES
-    section 9, read; the clause numbers from memory).
+    IEEE Std 1531 and IEEE Std 519 application guidance, h_r ≈ √(S_sc/Q_c) (read; the clause
+    numbers from memory).
 
     Examples
     --------
     >>> round(resonance_order(8.696e6, 71.0e3), 2)
     11.07
     """
-    return 1.0 / math.sqrt(detuning + (1.0 - detuning) * reactive_power / short_circuit_va)
+    return 1.0 / math.sqrt(detuning + (1.0 - detuning) * reactive_power / short_circuit_power)
 
 
 def tuning_order(detuning):
-    """Series-resonant order of a detuned bank: n = 1/√p.
+    """Series-resonant order of a detuned bank (its reactor against its capacitors).
+
+    Parameters
+    ----------
+    detuning : float
+        p = X_L/X_C at the fundamental [-], > 0.
+
+    Returns
+    -------
+    float
+        n [-]: the bank is inductive above n × f1.
+
+    Notes
+    -----
+    n = 1/√p.
+
+    References
+    ----------
+    Textbook (read for 7 % → 189 Hz at 50 Hz); the orders for other p computed.
 
     Examples
     --------
@@ -190,7 +254,27 @@ def tuning_order(detuning):
 
 
 def capacitor_voltage(voltage, detuning):
-    """Voltage across the capacitors of a detuned bank: U_C = U / (1 − p) [V].
+    """Voltage across the capacitors of a detuned bank.
+
+    Parameters
+    ----------
+    voltage : float
+        System voltage [V].
+    detuning : float
+        p = X_L/X_C [-], in [0, 1).
+
+    Returns
+    -------
+    float
+        U_C [V].
+
+    Notes
+    -----
+    U_C = U / (1 − p): the reactor's voltage adds to the capacitor's (they are in antiphase).
+
+    References
+    ----------
+    Textbook (read: 6 % on 400 V → 425.5 V).
 
     Examples
     --------
@@ -200,8 +284,24 @@ def capacitor_voltage(voltage, detuning):
     return voltage / (1.0 - detuning)
 
 
-def voltage_rise_pct(reactive_power, short_circuit_va):
-    """Steady voltage rise when the bank is switched in: ΔU ≈ 100 Q_c / S_sc [%].
+def voltage_rise_pct(reactive_power, short_circuit_power):
+    """Steady voltage rise when a capacitor bank is switched in.
+
+    Parameters
+    ----------
+    reactive_power : float
+        The bank's output [var].
+    short_circuit_power : float
+        S_sc at the bank [VA].
+
+    Returns
+    -------
+    float
+        ΔU [%].
+
+    Notes
+    -----
+    ΔU ≈ 100 Q_c / S_sc.
 
     References
     ----------
@@ -213,341 +313,4 @@ def voltage_rise_pct(reactive_power, short_circuit_va):
     >>> round(voltage_rise_pct(71e3, 8.696e6), 3)
     0.816
     """
-    return 100.0 * reactive_power / short_circuit_va
-
-
-def _near_harmonic(order):
-    """The characteristic harmonic within RESONANCE_BAND of `order`, or None."""
-    for harmonic in SIX_PULSE_HARMONICS:
-        if abs(order - harmonic) <= RESONANCE_BAND * harmonic:
-            return harmonic
-    return None
-
-
-# ---- the calculator -------------------------------------------------------------------------
-
-def _check_inputs(inputs):
-    """Cross-field problems: leading/lagging mix-ups, a target below the present pf, and a
-    transformer given by half."""
-    pf_now, pf_target = inputs["pf_now"], inputs["pf_target"]
-    if inputs["pf_now_sense"] == "leading":
-        raise InputError("pf_now_sense", "leading",
-                         "a load whose power factor already leads is over-compensated: adding "
-                         "capacitors makes it worse (it needs less capacitance or a reactor). "
-                         "Capacitor correction is for lagging loads such as motors; check the "
-                         "meter's sign convention (a negative pf or kvar reading usually means "
-                         "leading) and choose lagging if the load is inductive")
-    if inputs["pf_target_sense"] == "leading" and pf_target < 1.0:
-        raise InputError("pf_target_sense", "leading",
-                         f"a leading target ({pf_target:g} leading) means more capacitance than "
-                         "the load needs: the voltage rises and utilities may bill or forbid "
-                         "it. Choose a lagging target (0.95 to 0.98 is usual) or 1.0")
-    if pf_target < pf_now:
-        raise InputError("pf_target", pf_target,
-                         f"the target {pf_target:g} is below the present power factor "
-                         f"{pf_now:g}; capacitors raise a lagging power factor, so enter a "
-                         f"target between {pf_now:g} and 1")
-    if pf_target == pf_now:
-        raise InputError("pf_target", pf_target,
-                         f"the load is already at {pf_now:g}: no capacitors are needed; enter a "
-                         f"higher target (up to 1)")
-    given = [n for n in ("xfmr_kva", "xfmr_z_pct") if inputs[n] is not None]
-    if len(given) == 1:
-        missing = ({"xfmr_kva", "xfmr_z_pct"} - set(given)).pop()
-        words = {"xfmr_kva": "its rating (kVA)", "xfmr_z_pct": "its impedance (%Z)"}[missing]
-        raise InputError(missing, None, f"the transformer needs {words} as well, from its "
-                         "nameplate; or leave both blank and give the fault level")
-
-
-def _pf_view(inputs):
-    _check_inputs(inputs)
-    power, voltage, frequency = inputs["power"], inputs["voltage"], inputs["frequency_hz"]
-    pf_now, pf_target = inputs["pf_now"], inputs["pf_target"]
-    phases = int(inputs["phases"])
-    kvar = capacitor_kvar(power, pf_now, pf_target)
-    cap_a = full_load_current(kvar, voltage, phases)
-    before_va, after_va = power / pf_now, power / pf_target
-    line_before = full_load_current(before_va, voltage, phases)
-    line_after = full_load_current(after_va, voltage, phases)
-    result = Result()
-
-    result.output("kvar", kvar)
-    result.output("capacitor_a", cap_a)
-    p_t, v_t = fq(power, "W"), fq(voltage, "V")
-    result.step("Reactive power to cancel", "Q_c = P (tan φ1 − tan φ2)",
-                f"= {p_t} × ({tan_phi(pf_now):.4f} − {tan_phi(pf_target):.4f}) = "
-                f"{fq(kvar, 'var')}")
-    k = "√3 × " if phases == 3 else ""
-    result.step("Capacitor current", f"I_C = Q_c / ({k}V)",
-                f"= {fq(kvar, 'var')} / ({k}{v_t}) = {fq(cap_a, 'A')}")
-    banks = (("wye", "c_wye", "Capacitance per phase, wye bank (each across V/√3)",
-              "C_Y = Q_c / (2πf V²)"),
-             ("delta", "c_delta", "Capacitance per phase, delta bank (each across V)",
-              "C_Δ = Q_c / (3 × 2πf V²) = C_Y / 3")) if phases == 3 else (
-        ("single", "c_single", "Capacitance", "C = Q_c / (2πf V²)"),)
-    for connection, name, text, formula in banks:
-        capacitance = capacitance_per_phase(kvar, voltage, frequency, connection)
-        result.output(name, capacitance)
-        thirds = "3 × " if connection == "delta" else ""
-        result.step(text, formula, f"= {fq(kvar, 'var')} / ({thirds}2π × {frequency:g} Hz × "
-                    f"({v_t})²) = {fq(capacitance, 'F')}")
-    conductor = NEC_460_8_FACTOR * cap_a
-    result.output("conductor_a", conductor)
-    result.step("Capacitor conductors, at least 135 % of the capacitor current (NEC 460.8(A))",
-                "I_cond ≥ 1.35 I_C", f"= {fq(conductor, 'A')}")
-    reduction = 100.0 * (1.0 - pf_now / pf_target)
-    loss_cut = 100.0 * (1.0 - (pf_now / pf_target) ** 2)
-    result.output("kva_before", before_va)
-    result.output("kva_after", after_va)
-    result.output("line_a_before", line_before)
-    result.output("line_a_after", line_after)
-    result.output("line_reduction_pct", reduction)
-    result.output("loss_reduction_pct", loss_cut)
-    result.step("Line current before and after (same kW, same voltage)", "I = P / (pf × k V)",
-                f"= {fq(line_before, 'A')} → {fq(line_after, 'A')} ({reduction:.3g} % less)")
-    result.step("Losses in the supply cables and transformer upstream of the bank (∝ I²)",
-                "ΔP/P = 1 − (pf1 / pf2)²", f"= {loss_cut:.3g} % less")
-
-    _resonance(result, inputs, kvar, voltage, frequency)
-    if pf_target > HIGH_TARGET_PF:
-        result.check("light_load", "warn",
-                     f"A target above {HIGH_TARGET_PF:g} leaves the bank over-compensating when "
-                     "the load drops (leading pf, raised voltage); switch the bank in steps or "
-                     "with the load (common practice).")
-    result.assumptions += [
-        "The load's real power stays the same after correction; the capacitors are rated at the "
-        "system voltage and frequency given (their kvar scales with V² and f).",
-        "Fixed bank at the load's bus; the currents are fundamental-frequency rms values.",
-    ]
-    if phases == 3:
-        result.assumptions.append("Three-phase: balanced; voltage line-to-line.")
-    result.sources += [
-        "Q_c = P (tan φ1 − tan φ2), I = Q/(√3 V), C = Q/(2πf V²): IEEE Std 141-1993 (Red Book), "
-        "ch. 8 — from memory.",
-        "Conductor ampacity ≥ 135 % of rated capacitor current: NEC 460.8(A) — from memory.",
-    ]
-    result.cautions += [
-        "Capacitors hold a charge after disconnection: wait for the discharge resistors (NEC "
-        "460.6: down to 50 V within 1 minute at 600 V and below — from memory), then short and "
-        "ground the terminals before touching them.",
-        *cautions.COMMON,
-    ]
-    if voltage > 1000.0:
-        result.cautions.append(cautions.MEDIUM_VOLTAGE)
-    return result
-
-
-def _resonance(result, inputs, kvar, voltage, frequency):
-    """Resonance with the supply, the harmonic check, and the detuning figures."""
-    xfmr_va, z_pct = inputs["xfmr_kva"], inputs["xfmr_z_pct"]
-    source_va = inputs["source_mva"]
-    reactor = inputs["reactor_pct"]
-    rated_v = inputs["capacitor_rated_v"]
-    if xfmr_va is None and source_va is None:
-        result.check("resonance", "warn",
-                     "No transformer or fault level given: the bank's resonance with the "
-                     "supply is not checked. Enter the transformer's kVA and %Z (nameplate) "
-                     "or the fault level at the bus.")
-        _series_without_supply(result, inputs, kvar)
-        _capacitor_voltage(result, voltage, 0.0 if reactor is None else reactor / 100.0,
-                           rated_v, reactor is not None)
-        return
-    s_sc = short_circuit_power(xfmr_va, z_pct, source_va)
-    order = resonance_order(s_sc, kvar)
-    rise = voltage_rise_pct(kvar, s_sc)
-    result.output("short_circuit_va", s_sc)
-    result.output("resonance_order", order)
-    result.output("resonance_hz", order * frequency)
-    result.output("voltage_rise_pct", rise)
-    if xfmr_va is not None and source_va is not None:
-        formula, numbers = ("S_sc = 1 / (Z%/(100 S_T) + 1/S_source)",
-                            f"= 1 / ({z_pct:g} %/(100 × {fq(xfmr_va, 'VA')}) + "
-                            f"1/{fq(source_va, 'VA')}) = {fq(s_sc, 'VA')}")
-    elif xfmr_va is not None:
-        formula, numbers = ("S_sc = 100 S_T / Z% (infinite source ahead)",
-                            f"= 100 × {fq(xfmr_va, 'VA')} / {z_pct:g} % = {fq(s_sc, 'VA')}")
-    else:
-        formula, numbers = "S_sc = fault level given", f"= {fq(s_sc, 'VA')}"
-    result.step("Short-circuit power at the bank", formula, numbers)
-    result.step("Parallel resonance of the supply inductance with the bank",
-                "h = √(S_sc / Q_c), f_r = h f1",
-                f"= √({fq(s_sc, 'VA')} / {fq(kvar, 'var')}) = {order:.3g} → "
-                f"{fq(order * frequency, 'Hz')}")
-    result.step("Voltage rise when the bank is switched in", "ΔU ≈ 100 Q_c / S_sc",
-                f"= {rise:.3g} %")
-    if rise > VOLTAGE_RISE_LIMIT_PCT:
-        result.check("voltage_rise", "warn",
-                     f"Switching the whole bank in raises the voltage by about {rise:.3g} %: "
-                     f"more than the {VOLTAGE_RISE_LIMIT_PCT:g} % a step usually should (common "
-                     "practice); split the bank into steps or check the supply data.")
-    near = _near_harmonic(order)
-    if near is not None:
-        result.check("resonance", "warn",
-                     f"The bank resonates with the supply at h = {order:.3g}, on the {near}th "
-                     "harmonic of six-pulse drives and rectifiers "
-                     f"({', '.join(map(str, SIX_PULSE_HARMONICS))}): "
-                     "a small harmonic current there is amplified, overheating capacitors and "
-                     "blowing their fuses. Use a detuned bank (reactor) or change the kvar.")
-    else:
-        result.check("resonance", "pass",
-                     f"The resonance at h = {order:.3g} is more than "
-                     f"{RESONANCE_BAND * 100:g} % from the 5th, 7th, 11th and 13th harmonics; "
-                     "it moves as kvar steps switch and the supply changes, so check each "
-                     "step.")
-    suggested = reactor is None
-    p_pct = SUGGESTED_DETUNING_PCT if suggested else reactor
-    p = p_pct / 100.0
-    n = tuning_order(p)
-    detuned = resonance_order(s_sc, kvar, p)
-    result.output("detuning_pct", p_pct)
-    result.output("tuning_order", n)
-    result.output("tuned_hz", n * frequency)
-    result.output("detuned_resonance_order", detuned)
-    label = "Suggested detuning reactor" if suggested else "Detuning reactor"
-    result.step(f"{label}: p = X_L / X_C = {100 * p:g} %; series tuning order",
-                "n = 1 / √p", f"= 1 / √{p:g} = {n:.3g} → {fq(n * frequency, 'Hz')}")
-    result.step("Parallel resonance of the detuned bank with the supply (moves below n)",
-                "h' = 1 / √(p + (1 − p) Q_c / S_sc)", f"= {detuned:.3g}")
-    if detuned < SIX_PULSE_HARMONICS[0] * (1.0 - RESONANCE_BAND):
-        result.check("detuned", "pass",
-                     f"With p = {100 * p:g} % the bank is inductive above "
-                     f"{fq(n * frequency, 'Hz')} and its resonance (h' = {detuned:.3g}) is below "
-                     "the 5th harmonic.")
-    else:
-        result.check("detuned", "warn",
-                     f"With p = {100 * p:g} % the resonance is at h' = {detuned:.3g}, not safely "
-                     "below the 5th harmonic; choose a larger p (7 % or 14 %).")
-    _capacitor_voltage(result, voltage, p, rated_v, True)
-    _resonance_series(result, kvar, s_sc, p)
-    result.assumptions.append(
-        "Supply as a pure inductance (transformer and source reactance); the load's resistance "
-        "damps a real resonance, motors' inductance raises its order slightly.")
-    result.sources.append(
-        "h = √(S_sc/Q_c), detuning p with n = 1/√p and U_C = U/(1 − p): IEEE Std 1531-2020 "
-        "and IEEE Std 18-2012 application context — REFERENCE_VALUES section 9 (read; the "
-        "clause numbers from memory).")
-
-
-def _series_without_supply(result, inputs, kvar):
-    """The chart when no supply is given: kvar against the target power factor."""
-    targets = [inputs["pf_now"] + (1.0 - inputs["pf_now"]) * k / 100.0 for k in range(101)]
-    result.series = {
-        "title": "Capacitor kvar against the target power factor",
-        "x": {"label": "Target power factor", "unit": "", "values": targets},
-        "y": [{"label": "Capacitor reactive power", "unit": "var",
-               "values": [capacitor_kvar(inputs["power"], inputs["pf_now"], t) for t in targets]}],
-        "marks": [{"axis": "x", "value": inputs["pf_target"], "label": "Target"}],
-    }
-
-
-def _capacitor_voltage(result, voltage, p, rated_v, show):
-    """Capacitor voltage with the reactor, against the IEEE 18 continuous limits."""
-    u_c = capacitor_voltage(voltage, p)
-    if show:
-        result.output("capacitor_v", u_c)
-        result.step("Voltage on the capacitors with the series reactor", "U_C = U / (1 − p)",
-                    f"= {fq(voltage, 'V')} / (1 − {p:g}) = {fq(u_c, 'V')}")
-    if rated_v is None:
-        if p:
-            result.check("capacitor_voltage", "warn",
-                         f"The capacitors of a detuned bank run at {fq(u_c, 'V')}, above the "
-                         f"{fq(voltage, 'V')} system: enter their rated voltage to check it "
-                         "(IEEE 18 allows 110 % continuously).")
-        return
-    ratio = u_c / rated_v
-    if ratio > IEEE18_RMS_VOLTAGE:
-        status, words = "fail", "above the 110 % continuous limit"
-    elif ratio > 1.0:
-        status, words = "warn", "above rating, inside the 110 % continuous allowance"
-    else:
-        status, words = "pass", "within rating"
-    result.check("capacitor_voltage", status,
-                 f"Capacitors rated {fq(rated_v, 'V')} see {fq(u_c, 'V')} ({100 * ratio:.3g} %): "
-                 f"{words} (IEEE Std 18-2012: 110 % rms voltage, 135 % current continuously).")
-
-
-def _resonance_series(result, kvar, s_sc, p):
-    """The chart: resonance order as the bank grows from a tenth to twice its size."""
-    sizes = [kvar * (0.1 + 1.9 * k / 200.0) for k in range(201)]
-    result.series = {
-        "title": "Resonance order against bank size",
-        "x": {"label": "Bank reactive power", "unit": "var", "values": sizes},
-        "y_axis": {"label": "Harmonic order", "unit": ""},
-        "y": [
-            {"label": "Plain bank", "unit": "",
-             "values": [resonance_order(s_sc, q) for q in sizes]},
-            {"label": f"Detuned, p = {100 * p:g} %", "unit": "",
-             "values": [resonance_order(s_sc, q, p) for q in sizes]},
-        ],
-        "marks": [{"axis": "x", "value": kvar, "label": "This bank"}]
-        + [{"axis": "y", "value": float(h), "label": f"{h}th"} for h in SIX_PULSE_HARMONICS],
-    }
-
-
-POWER_FACTOR_CORRECTION = Calculator(
-    id="pf-correction",
-    title="Power-factor correction and harmonic resonance",
-    summary="Capacitor kvar, current and capacitance for a target power factor, the current and "
-            "loss saved, and the bank's resonance with the supply transformer.",
-    group="Power quality",
-    inputs=(
-        Input("power", "Load real power", "quantity", unit="kW", default=150, minimum=0,
-              min_exclusive=True, maximum=1e6, help="Average demand in kW (or hp of input)."),
-        Input("pf_now", "Present power factor", "quantity", unit="", default=0.78, minimum=0,
-              min_exclusive=True, maximum=1, help="From the meter or the utility bill."),
-        Input("pf_target", "Target power factor", "quantity", unit="", default=0.95, minimum=0,
-              min_exclusive=True, maximum=1, help="0.95 to 0.98 lagging is usual."),
-        Input("voltage", "System voltage", "quantity", unit="V", default=480, minimum=1,
-              maximum=69000, region_defaults={"iec": 400},
-              suggest="voltages", help="Line-to-line for three-phase."),
-        Input("phases", "Phases", "choice", default="3",
-              choices=(("3", "Three-phase"), ("1", "Single-phase"))),
-        Input("frequency_hz", "Frequency", "quantity", unit="Hz", default=60, minimum=1,
-              maximum=1000, region_defaults={"iec": 50}),
-        Input("xfmr_kva", "Supply transformer rating", "quantity", unit="kVA", default=500,
-              optional=True, minimum=0, min_exclusive=True, maximum=1e6,
-              region_defaults={"iec": 630}, help="Blank if unknown (then give the fault level)."),
-        Input("xfmr_z_pct", "Transformer impedance", "quantity", unit="%", default=5.75,
-              optional=True, minimum=0, min_exclusive=True, maximum=30,
-              region_defaults={"iec": 4}, help="%Z from the nameplate."),
-        Input("source_mva", "Fault level of the supply", "quantity", unit="MVA", optional=True,
-              minimum=0, min_exclusive=True, maximum=1e5,
-              help="Ahead of the transformer (or at the bus if no transformer is given); blank: "
-                   "infinite."),
-        Input("pf_now_sense", "Present power factor is", "choice", default="lagging",
-              choices=SENSES, advanced=True),
-        Input("pf_target_sense", "Target power factor is", "choice", default="lagging",
-              choices=SENSES, advanced=True),
-        Input("reactor_pct", "Detuning reactor p", "quantity", unit="%", optional=True,
-              minimum=0, min_exclusive=True, maximum=20, advanced=True,
-              help="X_L/X_C of the series reactor (5.67, 7 or 14 % are usual); blank: 7 % "
-                   "suggested."),
-        Input("capacitor_rated_v", "Capacitor rated voltage", "quantity", unit="V",
-              optional=True, minimum=0, min_exclusive=True, maximum=69000, advanced=True,
-              help="Line-to-line nameplate voltage of the capacitors, for the IEEE 18 check."),
-    ),
-    outputs=(
-        Output("kvar", "Capacitor reactive power", "var"),
-        Output("capacitor_a", "Capacitor current", "A"),
-        Output("c_wye", "Capacitance per phase, wye bank", "F"),
-        Output("c_delta", "Capacitance per phase, delta bank", "F"),
-        Output("c_single", "Capacitance (single-phase)", "F"),
-        Output("conductor_a", "Conductor ampacity needed (135 %)", "A"),
-        Output("line_a_before", "Line current before", "A"),
-        Output("line_a_after", "Line current after", "A"),
-        Output("line_reduction_pct", "Line current reduction", "%"),
-        Output("loss_reduction_pct", "Upstream loss reduction", "%"),
-        Output("kva_before", "Apparent power before", "VA"),
-        Output("kva_after", "Apparent power after", "VA"),
-        Output("short_circuit_va", "Short-circuit power at the bank", "VA"),
-        Output("resonance_order", "Parallel resonance, harmonic order", ""),
-        Output("resonance_hz", "Parallel resonance frequency", "Hz"),
-        Output("voltage_rise_pct", "Voltage rise on switching in", "%"),
-        Output("detuning_pct", "Detuning reactor p", "%"),
-        Output("tuning_order", "Tuning order of the detuned bank", ""),
-        Output("tuned_hz", "Tuning frequency of the detuned bank", "Hz"),
-        Output("detuned_resonance_order", "Resonance order with the reactor", ""),
-        Output("capacitor_v", "Capacitor voltage with the reactor", "V"),
-    ),
-    compute=_pf_view,
-)
+    return 100.0 * reactive_power / short_circuit_power

@@ -1,4 +1,6 @@
-"""Fixtures shared by the suite: a built site, a local server for it, and a browser."""
+"""Shared by the suite: calculator helpers (run, values, checks, errors), a built site and a
+local server for it. Test modules import the helpers: `from tests.conftest import run, values`.
+"""
 
 import contextlib
 import os
@@ -14,6 +16,37 @@ if str(ROOT) not in sys.path:
     sys.path.insert(0, str(ROOT))
 
 from build import serve  # noqa: E402
+from calc import api  # noqa: E402
+
+
+def run(calculator, **inputs):
+    """A calculator's result for these inputs; fails the test unless it computed."""
+    result = api.run(calculator, inputs)
+    assert result["ok"], result
+    return result
+
+
+def values(result):
+    """{output name: value (SI)} of a result."""
+    return {name: out["value"] for name, out in result["outputs"].items()}
+
+
+def checks(result):
+    """{check name: status} of a result."""
+    return {check["name"]: check["status"] for check in result["checks"]}
+
+
+def check_message(result, name):
+    """The message of the one check called `name`."""
+    (message,) = [c["message"] for c in result["checks"] if c["name"] == name]
+    return message
+
+
+def errors(calculator, **inputs):
+    """{field: message} of a refused calculation; fails the test if it computed."""
+    result = api.run(calculator, inputs)
+    assert result["ok"] is False, result
+    return {error["field"]: error["message"] for error in result["errors"]}
 
 
 def build_site(site_dir, team_file=None):

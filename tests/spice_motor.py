@@ -1,4 +1,5 @@
-"""A DC motor's run-up as an ngspice transient: the independent reference for calc.motors.run_up.
+"""A DC motor's run-up as an ngspice transient: the independent reference for
+calc.dc_motors.run_up.
 
 The equivalent circuit, one node per equation:
 
@@ -8,7 +9,7 @@ The equivalent circuit, one node per equation:
                k_s·i²) is a current source into w, the load and friction B·ω a current out.
 
 A rotor that the load holds at standstill (static friction) is modelled by letting the load
-current never exceed the motor's own torque while ω ≤ 0, as calc.motors does.
+current never exceed the motor's own torque while ω ≤ 0, as calc.dc_motors does.
 """
 
 import shutil
@@ -44,7 +45,7 @@ def run_up_netlist(motor, resistance, t_stop, t_max_step):
     # While the rotor stands, the load holds it: never more than the motor's torque.
     held = f"(V(w) > 1e-9 ? ({load}) : min({load}, max({torque}, 0)))"
     return "\n".join([
-        "* DC motor run-up (calc.motors cross-check)",
+        "* DC motor run-up (calc.dc_motors cross-check)",
         f"Vsupply a 0 DC {motor.voltage!r}",
         f"Rarm a b {resistance!r}",
         f"Larm b c {motor.inductance!r} IC=0",

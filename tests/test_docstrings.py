@@ -1,4 +1,7 @@
-"""Every Examples section in calc/ runs and gives its literal result (numpydoc, STYLE.md)."""
+"""Every Examples section in calc/ runs and gives its literal result (numpydoc, STYLE.md).
+
+The one place doctests run: domain test files do not call doctest themselves.
+"""
 
 import doctest
 import importlib
@@ -8,7 +11,9 @@ import pytest
 
 import calc
 
-MODULES = sorted(m.name for m in pkgutil.iter_modules(calc.__path__) if m.name != "__main__")
+MODULES = sorted(m.name.removeprefix("calc.")
+                 for m in pkgutil.walk_packages(calc.__path__, prefix="calc.")
+                 if not m.name.endswith("__main__"))
 
 
 @pytest.mark.parametrize("name", MODULES)

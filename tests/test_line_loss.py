@@ -1,5 +1,5 @@
 """line-loss: worked examples, the square law, agreement with voltage-drop, pandapower and
-scipy, limiting cases and every error path."""
+scipy, limiting cases, the thresholds of its checks and every error path."""
 
 import math
 import warnings
@@ -12,10 +12,13 @@ from hypothesis import strategies as st
 from scipy import optimize
 
 from calc import api, conductors, line_loss
-from calc.errors import CalcError
+from calc.calculators import line_loss as view
+from calc.errors import ParameterError
+from tests.conftest import check_message, checks, values
+from tests.conftest import errors as calculator_errors
+from tests.conftest import run as run_calculator
 
-SQRT3 = math.sqrt(3.0)
-KFT = 304.8  # metres in 1000 ft, exact
+SPEC = view.CALCULATOR
 HOUR = 3600.0
 UREG = pint.UnitRegistry()
 # Where both sides are the same arithmetic done another way (or exact by hand), only
@@ -24,23 +27,11 @@ ROUNDING = 1e-12
 
 
 def run(**inputs):
-    result = api.run("line-loss", inputs)
-    assert result["ok"], result
-    return result
-
-
-def values(result):
-    return {name: out["value"] for name, out in result["outputs"].items()}
+    return run_calculator("line-loss", **inputs)
 
 
 def errors(**inputs):
-    result = api.run("line-loss", inputs)
-    assert result["ok"] is False, result
-    return {error["field"]: error["message"] for error in result["errors"]}
-
-
-def checks(result):
-    return {check["name"]: check for check in result["checks"]}
+    return calculator_errors("line-loss", **inputs)
 
 
 def kwh(joules):
@@ -51,7 +42,8 @@ def kwh(joules):
 # ---- worked example 1: DC, every number from a published table -----------------------------
 # A 10 kW DC irrigation pump fed from a farm's battery bank, 300 ft away on 1/0 copper: 125 V or
 # 250 V? NEC Chapter 9 Table 8 gives 1/0 stranded copper 0.122 Ω/kft at 75 °C (read,
-# REFERENCE_VALUES 2a); on DC there is no skin effect, so R is the table value exactly. The
+# as reproduced from the 2011 edition); on DC there is no skin effect, so R is the table value
+# exactly. The
 # relations I = P / V and P_loss = 2 I² R (loop of two conductors) are the textbook ones (Glover,
 # Sarma & Overbye, Power System Analysis and Design, 5th ed., ch. 5 — from memory). Worked by
 # hand below; the table's 3 significant figures are exact inputs here, so rel=1e-9 is rounding.
@@ -150,8 +142,8 @@ def test_step_down_transformer_adds_its_losses_all_year():
     # 1587.57 kWh at 480 V against 1429.09 kWh at 208 V: the transformer's year of no-load
     # loss outweighs the feeder saving, and the result says so.
     assert out["annual_saving"] < 0
-    assert checks(result)["alt_voltage_saving"]["status"] == "warn"
-    assert "outweigh" in checks(result)["alt_voltage_saving"]["message"]
+    assert checks(result)["alt_voltage_saving"] == "warn"
+    assert "outweigh" in check_message(result, "alt_voltage_saving")
 
 
 def test_step_up_and_step_down_pair_counts_both():
@@ -166,40 +158,6 @@ def test_step_up_and_step_down_pair_counts_both():
 
 
 # ---- the functions ------------------------------------------------------------------------
-
-def test_load_current_worked_values():
-    # I = P / (√3 V pf): 50 kW, 480 V, 0.9 -> 50 000 / 748.246 = 66.8229 A; single-phase
-    # 2.4 kW at 120 V, pf 1 -> 20 A; 120/240 V three-wire 4.8 kW at 240 V -> 20 A a line; DC
-    # 1 kW at 48 V -> 20.8333 A, its pf ignored (computed by hand).
-    assert line_loss.load_current("3ph", 50e3, 480.0, 0.9) == pytest.approx(66.8229, rel=1e-5)
-    assert line_loss.load_current("1ph", 2.4e3, 120.0, 1.0) == pytest.approx(20.0, rel=ROUNDING)
-    assert line_loss.load_current("1ph3w", 4.8e3, 240.0, 1.0) == pytest.approx(20.0, rel=ROUNDING)
-    assert line_loss.load_current("dc", 1.0e3, 48.0, 0.5) == pytest.approx(20.8333, rel=1e-5)
-
-
-def test_load_current_of_no_load_is_zero():
-    assert line_loss.load_current("3ph", 0.0, 480.0, 0.9) == 0.0
-
-
-@settings(max_examples=200, deadline=None)
-@given(power=st.floats(1, 1e8), voltage=st.floats(1, 1e5), pf=st.floats(0.05, 1.0),
-       system=st.sampled_from(["1ph", "1ph3w", "3ph"]))
-def test_load_current_round_trip_to_power(power, voltage, pf, system):
-    current = line_loss.load_current(system, power, voltage, pf)
-    k = SQRT3 if system == "3ph" else 1.0
-    assert k * voltage * current * pf == pytest.approx(power, rel=ROUNDING)
-
-
-@pytest.mark.parametrize("args, words", [
-    (("2ph", 1e3, 480.0, 0.9), "is not one of"),
-    (("3ph", -1.0, 480.0, 0.9), "power must be zero or more"),
-    (("3ph", 1e3, 0.0, 0.9), "voltage must be more than 0 V"),
-    (("3ph", 1e3, 480.0, 1.2), r"power factor must lie in \(0, 1\]"),
-])
-def test_load_current_refuses(args, words):
-    with pytest.raises(CalcError, match=words):
-        line_loss.load_current(*args)
-
 
 # Buller & Woodrow LsF = 0.3 LF + 0.7 LF² (Electrical World, 1928; Gönen, Electric Power
 # Distribution System Engineering, 2nd ed., ch. 2 — from memory): LF 0.6 -> 0.18 + 0.252 =
@@ -225,7 +183,7 @@ def test_loss_factor_lies_between_its_bounds(load_factor):
 
 @pytest.mark.parametrize("bad", [-0.1, 1.01])
 def test_loss_factor_refuses_a_load_factor_outside_0_1(bad):
-    with pytest.raises(CalcError, match=r"load factor must lie in \[0, 1\]"):
+    with pytest.raises(ParameterError, match=r"load factor must lie in \[0, 1\]"):
         line_loss.loss_factor(bad)
 
 
@@ -245,6 +203,26 @@ def test_transformer_load_loss_goes_with_the_square_of_the_load(power, p0, pk):
     double = values(run(power=f"{2 * power} kW", **inputs))["alt_xfmr_loss_w"] - p0
     # rounding of S/Sr squared, relative and (near zero load loss) absolute in µW
     assert double == pytest.approx(4 * at, rel=1e-9, abs=1e-6)
+
+
+def test_transformer_losses_function():
+    # P = P0 + Pk (S/Sr)² (IEC 60076-1 definitions — from memory): 15 kVA, 100 W + 300 W,
+    # carrying 10.526 kVA -> 0.70175 of rating, 300 × 0.492459 = 147.738 W (by hand).
+    losses = line_loss.transformer_losses(15e3, 100.0, 300.0, 10e3 / 0.95)
+    assert losses.loading == pytest.approx(0.701754, rel=1e-6)  # constant to 6 figures
+    assert losses.load_loss == pytest.approx(XFMR_LOAD_LOSS, rel=1e-5)
+    assert line_loss.transformer_losses(15e3, 100.0, 300.0, 0.0).load_loss == 0.0
+
+
+@pytest.mark.parametrize("args, parameter", [
+    ((0.0, 100.0, 300.0, 1e3), "rating"),
+    ((15e3, -1.0, 300.0, 1e3), "no_load_loss"),
+    ((15e3, 100.0, -1.0, 1e3), "rated_load_loss"),
+])
+def test_transformer_losses_refuses(args, parameter):
+    with pytest.raises(ParameterError) as raised:
+        line_loss.transformer_losses(*args)
+    assert raised.value.parameter == parameter
 
 
 def test_annual_loss_energy_worked_value():
@@ -268,7 +246,7 @@ def test_annual_loss_energy_is_linear_in_time(loss, hours, lsf):
     ((1.0, HOUR, 1.5), r"loss factor must lie in \[0, 1\]"),
 ])
 def test_annual_loss_energy_refuses(args, words):
-    with pytest.raises(CalcError, match=words):
+    with pytest.raises(ParameterError, match=words):
         line_loss.annual_loss_energy(*args)
 
 
@@ -280,7 +258,7 @@ def test_energy_cost_against_pint():
 
 
 def test_energy_cost_refuses_a_negative_tariff():
-    with pytest.raises(CalcError, match="tariff must be zero or more"):
+    with pytest.raises(ParameterError, match="tariff must be zero or more"):
         line_loss.energy_cost(1.0, -0.1)
 
 
@@ -302,7 +280,7 @@ def test_payback_round_trip(cost, saving):
 
 
 def test_payback_refuses_a_negative_cost():
-    with pytest.raises(CalcError, match="extra cost must be zero or more"):
+    with pytest.raises(ParameterError, match="extra cost must be zero or more"):
         line_loss.payback_period(-1.0, 10.0)
 
 
@@ -379,8 +357,7 @@ def test_loss_equals_voltage_drop_calculators_loss(system, voltage):
 
 def _pandapower_line_loss(voltage, power, pf, length, r_per_m, x_per_m, sets, constant_current):
     """Three-phase line loss [W] of a two-bus pandapower case: slack at nominal, one load."""
-    import pandapower as pp
-
+    pp = pytest.importorskip("pandapower")
     net = pp.create_empty_network(sn_mva=1.0)
     source = pp.create_bus(net, vn_kv=voltage / 1e3)
     load = pp.create_bus(net, vn_kv=voltage / 1e3)
@@ -418,9 +395,9 @@ PANDAPOWER_CASES = [
 
 @pytest.mark.parametrize("case", PANDAPOWER_CASES)
 def test_three_phase_losses_agree_with_pandapower(case):
-    spec = {item.name: item.default for item in line_loss.LINE_LOSS.inputs}
+    spec = {item.name: item.default for item in SPEC.inputs}
     inputs = dict(spec, **case)
-    checked = api.validate(line_loss.LINE_LOSS, inputs)  # the same SI reading the view gets
+    checked = api.validate(SPEC, inputs)  # the same SI reading the view gets
     z = conductors.impedance(checked["size"], checked["material"], checked["conductor_temp_c"],
                              checked["frequency_hz"], checked["raceway"], None, checked["method"])
     out = values(run(**case))
@@ -435,8 +412,8 @@ def test_three_phase_losses_agree_with_pandapower(case):
 def test_worst_deviation_from_pandapower_is_below_1e8():
     worst = 0.0
     for case in PANDAPOWER_CASES:
-        inputs = dict({item.name: item.default for item in line_loss.LINE_LOSS.inputs}, **case)
-        checked = api.validate(line_loss.LINE_LOSS, inputs)
+        inputs = dict({item.name: item.default for item in SPEC.inputs}, **case)
+        checked = api.validate(SPEC, inputs)
         z = conductors.impedance(checked["size"], checked["material"],
                                  checked["conductor_temp_c"], checked["frequency_hz"],
                                  checked["raceway"], None, checked["method"])
@@ -454,8 +431,8 @@ def test_single_phase_constant_power_loss_against_scipy():
     # scipy's fsolve, then |I|² × 2R (the loop). fsolve's xtol=1e-13 makes rel=1e-9 generous.
     inputs = dict(system="1ph", voltage=240, alt_voltage=480, power="12 kW", pf=0.8,
                   length="150 ft", size="6 AWG", alt_size="4 AWG", method="physics")
-    checked = api.validate(line_loss.LINE_LOSS,
-                           dict({i.name: i.default for i in line_loss.LINE_LOSS.inputs}, **inputs))
+    checked = api.validate(SPEC,
+                           dict({i.name: i.default for i in SPEC.inputs}, **inputs))
     z = conductors.impedance(checked["size"], "cu", checked["conductor_temp_c"], 60.0, "pvc")
     loop = 2 * (z.r_ac + 1j * z.x) * checked["length"]
     phi = math.acos(0.8)
@@ -480,7 +457,7 @@ def test_no_operating_hours_means_no_energy_no_saving_and_no_payback():
     assert out["annual_loss_j"] == 0.0 and out["alt_annual_loss_j"] == 0.0
     assert out["upsized_annual_saving"] == 0.0
     assert "payback" not in out  # never divided by a zero saving
-    assert checks(result)["payback"]["status"] == "warn"
+    assert checks(result)["payback"] == "warn"
 
 
 def test_idle_transformers_still_lose_their_core_loss():
@@ -499,7 +476,7 @@ def test_same_voltage_twice_saves_nothing():
     result = run(voltage=480, alt_voltage=480)
     out = values(result)
     assert out["loss_ratio"] == 1.0 and out["annual_saving"] == 0.0
-    assert checks(result)["alt_voltage_saving"]["status"] == "warn"
+    assert checks(result)["alt_voltage_saving"] == "warn"
 
 
 def test_lossless_transformers_change_nothing():
@@ -517,8 +494,8 @@ def test_free_upsizing_pays_back_at_once():
 
 def test_same_size_for_the_payback_is_flagged_and_never_pays_back():
     result = run(size="1/0", alt_size="1/0", alt_size_cost=500)
-    assert checks(result)["alt_size_larger"]["status"] == "warn"
-    assert checks(result)["payback"]["status"] == "warn"
+    assert checks(result)["alt_size_larger"] == "warn"
+    assert checks(result)["payback"] == "warn"
     assert "payback" not in values(result)
 
 
@@ -530,15 +507,15 @@ def test_a_very_short_run_loses_almost_nothing():
 def test_load_model_warns_where_the_drop_is_large():
     # The defaults drop 4.2 % at 208 V: a constant-power load loses 9 % more there.
     result = run()
-    assert checks(result)["load_model"]["status"] == "warn"
-    assert checks(run(voltage=480, alt_voltage=600))["load_model"]["status"] == "pass"
+    assert checks(result)["load_model"] == "warn"
+    assert checks(run(voltage=480, alt_voltage=600))["load_model"] == "pass"
 
 
 def test_overloaded_or_implausible_transformers_are_flagged():
     result = run(step_down_kva=30, step_down_no_load_w=2000, step_down_load_loss_w=3000)
     named = checks(result)
-    assert named["step_down_loading"]["status"] == "warn"  # 55.6 kVA on 30 kVA
-    assert named["step_down_losses"]["status"] == "warn"  # 5 kW of 30 kVA is 17 %
+    assert named["step_down_loading"] == "warn"  # 55.6 kVA on 30 kVA
+    assert named["step_down_losses"] == "warn"  # 5 kW of 30 kVA is 17 %
 
 
 def test_medium_voltage_and_backfeed_cautions():
@@ -569,6 +546,86 @@ def test_result_has_steps_with_numbers_assumptions_sources_and_cautions():
     assert "extra cost / annual saving" in texts
     assert result["assumptions"] and result["sources"] and result["cautions"]
     assert any("Buller" in s for s in result["sources"])
+
+
+# ---- the thresholds of the checks: just inside and just outside each ---------------------------
+
+INSIDE, OUTSIDE = 0.99, 1.01  # 1 % either side of a limit
+
+
+@pytest.mark.parametrize("name, output", [("drop_limit", "drop_pct"),
+                                          ("alt_drop_limit", "alt_drop_pct")])
+@pytest.mark.parametrize("factor, status", [(INSIDE, "pass"), (OUTSIDE, "fail")])
+def test_drop_limit_threshold(name, output, factor, status):
+    drop = values(run())[output]
+    assert checks(run(max_drop_pct=drop / factor))[name] == status
+
+
+@pytest.mark.parametrize("factor, status", [(INSIDE, "pass"), (OUTSIDE, "warn")])
+def test_alt_voltage_saving_threshold(factor, status):
+    # Zero saving is the threshold: a step-down transformer's no-load loss, drawn all year,
+    # set to 0.99 or 1.01 of what the conductor saving pays for (no load loss, so nothing else
+    # changes): cost of P0 = P0 × 8760 h / 1000 × tariff.
+    plain = values(run())
+    tariff, energised_h = 0.15, 8760
+    break_even = plain["annual_saving"] / (energised_h / 1e3 * tariff)
+    result = run(tariff=tariff, energised_hours=energised_h, step_down_kva=75,
+                 step_down_no_load_w=break_even * factor, step_down_load_loss_w=0)
+    assert checks(result)["alt_voltage_saving"] == status
+
+
+def _length_for_load_model_gap(share):
+    """The run length [m] at which the constant-power loss exceeds the constant-current loss by
+    `share` at the first (lower) voltage, found by bisection on the calculator's outputs."""
+    def gap(length):
+        out = values(run(length=length))
+        return out["loss_cp_w"] / out["loss_w"] - 1.0
+
+    low, high = 1.0, 250 * 0.3048  # the default run (250 ft) is past the threshold
+    assert gap(low) < share < gap(high)
+    for _ in range(60):
+        middle = 0.5 * (low + high)
+        low, high = (middle, high) if gap(middle) < share else (low, middle)
+    return 0.5 * (low + high)
+
+
+@pytest.mark.parametrize("factor, status", [(INSIDE, "pass"), (OUTSIDE, "warn")])
+def test_load_model_threshold(factor, status):
+    length = _length_for_load_model_gap(view.LOAD_MODEL_WARN * factor)
+    out = values(run(length=length))
+    assert out["alt_loss_cp_w"] / out["alt_loss_w"] - 1 < view.LOAD_MODEL_WARN  # 480 V is far in
+    assert checks(run(length=length))["load_model"] == status
+
+
+@pytest.mark.parametrize("factor, status", [(INSIDE, None), (OUTSIDE, "warn")])
+def test_transformer_loading_threshold(factor, status):
+    # The defaults' load is 50 kW at 0.9 pf = 55.556 kVA; a rating it loads to 0.99 or 1.01.
+    burden_kva = 50 / 0.9
+    rating = burden_kva / (view.MAX_TRANSFORMER_LOADING * factor)
+    result = run(step_down_kva=rating, step_down_no_load_w=100, step_down_load_loss_w=500)
+    assert checks(result).get("step_down_loading") == status
+
+
+@pytest.mark.parametrize("factor, status", [(INSIDE, None), (OUTSIDE, "warn")])
+def test_transformer_loss_sanity_threshold(factor, status):
+    # Losses at rated load as a share of a 75 kVA rating: 0.99 or 1.01 of the limit.
+    total = view.TRANSFORMER_LOSS_SANITY * factor * 75e3
+    result = run(step_up_kva=75, step_up_no_load_w=total / 4, step_up_load_loss_w=total * 3 / 4)
+    assert checks(result).get("step_up_losses") == status
+
+
+@pytest.mark.parametrize("factor, status", [(INSIDE, "pass"), (OUTSIDE, "warn")])
+def test_max_payback_years_threshold(factor, status):
+    saving = values(run())["upsized_annual_saving"]
+    result = run(alt_size_cost=saving * line_loss.MAX_PAYBACK_YEARS * factor)
+    assert checks(result)["payback"] == status
+    assert ("payback" in values(result)) is (status == "pass")
+
+
+@pytest.mark.parametrize("alt_size, status", [("1/0", "warn"), ("2/0", None)])
+def test_alt_size_larger_threshold(alt_size, status):
+    # The comparison size must be larger than the run's 1/0: equal is flagged, the next is not.
+    assert checks(run(size="1/0", alt_size=alt_size)).get("alt_size_larger") == status
 
 
 # ---- every error path ---------------------------------------------------------------------
@@ -658,8 +715,15 @@ def test_any_input_gives_a_result_or_field_errors(inputs):
     result = api.run("line-loss", inputs)
     text = api.dumps(result)  # raises on NaN or infinity
     assert "internal error" not in text
-    names = {item.name for item in line_loss.LINE_LOSS.inputs} | set(inputs)
+    names = {item.name for item in SPEC.inputs} | set(inputs)
     if not result["ok"]:
         for error in result["errors"]:
             assert error["field"] in names and error["message"]
 
+
+
+def test_a_load_too_small_to_lose_anything_is_no_internal_error():
+    # 1e-300 kW: I²R underflows to 0 W, so the loss ratio is undefined and left out (found by
+    # test_any_input_gives_a_result_or_field_errors).
+    out = values(run(power=1e-300))
+    assert out["loss_w"] == 0.0 and "loss_ratio" not in out

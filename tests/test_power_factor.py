@@ -1,41 +1,31 @@
 """pf-correction: published multipliers and examples, limiting cases, properties (the target is
 met, resonance order falls as the bank grows), independent checks with pandapower, pint and
-ngspice, and one test per error path including leading/lagging mix-ups."""
+ngspice (each skips itself when missing), one test per error path including leading/lagging
+mix-ups, and every check's threshold just inside and just outside."""
 
-import doctest
 import math
 
 import numpy as np
-import pint
 import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from calc import api, power_factor
-from tests import spice
+from calc.calculators import pf_correction
+from tests import conftest, spice
+from tests.conftest import check_message, checks, values
 
-UREG = pint.UnitRegistry()
+ID = "pf-correction"
 
 
 def run(**inputs):
-    result = api.run("pf-correction", inputs)
-    assert result["ok"], result
-    return result
+    """The pf-correction result for these inputs (the shared helper, one calculator)."""
+    return conftest.run(ID, **inputs)
 
 
-def values(result):
-    return {name: out["value"] for name, out in result["outputs"].items()}
-
-
-def error_of(**inputs):
-    result = api.run("pf-correction", inputs)
-    assert result["ok"] is False, result
-    (error,) = result["errors"]
-    return error
-
-
-def test_docstring_examples():
-    assert doctest.testmod(power_factor).failed == 0
+def errors(**inputs):
+    """{field: message} of a refused pf-correction (the shared helper, one calculator)."""
+    return conftest.errors(ID, **inputs)
 
 
 # ---- published values -------------------------------------------------------------------------
@@ -51,25 +41,25 @@ MULTIPLIERS = [
 @pytest.mark.parametrize("now, target, multiplier", MULTIPLIERS)
 def test_kvar_multipliers(now, target, multiplier):
     out = values(run(power=100, pf_now=now, pf_target=target, xfmr_kva=None, xfmr_z_pct=None))
-    assert out["kvar"] / 100e3 == pytest.approx(multiplier, abs=5e-4)
+    assert out["capacitor_q"] / 100e3 == pytest.approx(multiplier, abs=5e-4)
 
 
 def test_single_phase_capacitance_example():
-    # 10 kvar at 240 V, 60 Hz: C = Q/(2πf V²) = 460.5 µF (REFERENCE_VALUES section 9, computed
-    # by hand from the textbook formula; 4 figures).
+    # 10 kvar at 240 V, 60 Hz: C = Q/(2πf V²) = 460.5 µF (computed by hand from the textbook
+    # formula Q = 2πf C V²; 4 figures).
     assert power_factor.capacitance_per_phase(10e3, 240, 60, "single") == pytest.approx(
         460.5e-6, rel=2e-4)
 
 
 def test_detuned_capacitor_voltage_example():
-    # 6 % reactor on 400 V: U_C = 400/(1 − 0.06) = 425.5 V (REFERENCE_VALUES section 9, read).
+    # 6 % reactor on 400 V: U_C = 400/(1 − 0.06) = 425.5 V (textbook example, read).
     assert power_factor.capacitor_voltage(400, 0.06) == pytest.approx(425.5, abs=0.05)
 
 
 @pytest.mark.parametrize("p, order", [(0.05, 4.47), (0.0567, 4.20), (0.06, 4.08), (0.07, 3.78),
                                       (0.08, 3.54), (0.14, 2.67)])
 def test_tuning_orders(p, order):
-    # n = 1/√p (REFERENCE_VALUES section 9, computed; 3 figures): 7 % → 189 Hz at 50 Hz (read).
+    # n = 1/√p (textbook relation; orders computed, 3 figures): 7 % → 189 Hz at 50 Hz (read).
     assert power_factor.tuning_order(p) == pytest.approx(order, abs=0.005)
 
 
@@ -79,15 +69,15 @@ def test_seven_percent_tunes_to_189_hz_at_50_hz():
 
 
 def test_geometric_mean_of_third_and_fifth():
-    # Tuning between the 3rd and 5th at √15 = 3.873 means X_L/X_C = 1/15 (REFERENCE_VALUES
-    # section 9, read).
+    # Tuning between the 3rd and 5th at √15 = 3.873 means X_L/X_C = 1/15 (power-quality
+    # practice, read).
     assert power_factor.tuning_order(1 / 15) == pytest.approx(math.sqrt(15), rel=1e-12)
 
 
 def test_transformer_dominated_resonance_form():
-    # h ≈ √(kVA_T × 100 / (%Z_T × kvar)) (REFERENCE_VALUES section 9, textbook, from memory):
+    # h ≈ √(kVA_T × 100 / (%Z_T × kvar)) (textbook, from memory):
     # 1000 kVA, 5.75 %, 300 kvar → √(100 000 / 1725) = 7.614 (by hand).
-    s_sc = power_factor.short_circuit_power(1000e3, 5.75)
+    s_sc = power_factor.bus_short_circuit_power(1000e3, 5.75)
     assert power_factor.resonance_order(s_sc, 300e3) == pytest.approx(7.614, abs=5e-4)
 
 
@@ -98,27 +88,26 @@ def test_default_barn_example_by_hand():
     # S_sc = 500/0.0575 = 8696 kVA; h = √(8696/71.04) = 11.06 → near the 11th: warned.
     result = run()
     out = values(result)
-    assert out["kvar"] == pytest.approx(71.04e3, rel=2e-4)
+    assert out["capacitor_q"] == pytest.approx(71.04e3, rel=2e-4)
     assert out["capacitor_a"] == pytest.approx(85.45, rel=2e-4)
     assert out["conductor_a"] == pytest.approx(115.4, rel=5e-4)
     assert out["short_circuit_va"] == pytest.approx(8.696e6, rel=1e-4)
     assert out["resonance_order"] == pytest.approx(11.06, abs=0.01)
-    checks = {c["name"]: c for c in result["checks"]}
-    assert checks["resonance"]["status"] == "warn" and "11th" in checks["resonance"]["message"]
+    assert checks(result)["resonance"] == "warn" and "11th" in check_message(result, "resonance")
 
 
 # ---- limiting cases --------------------------------------------------------------------------
 
 def test_correcting_to_unity_cancels_all_the_reactive_power():
     out = values(run(power=100, pf_now=0.8, pf_target=1.0))
-    assert out["kvar"] == pytest.approx(100e3 * 0.75, rel=1e-12)  # Q = P tan φ1, tan = 0.75
-    assert out["kva_after"] == pytest.approx(100e3, rel=1e-12)
+    assert out["capacitor_q"] == pytest.approx(100e3 * 0.75, rel=1e-12)  # Q = P tan φ1, tan = 0.75
+    assert out["apparent_after"] == pytest.approx(100e3, rel=1e-12)
 
 
 def test_a_tiny_correction_needs_a_tiny_bank():
     out = values(run(power=100, pf_now=0.9, pf_target=0.9 + 1e-9))
     # dQ/dpf = −P d(tan φ)/d(cos φ) = P / (pf² sin φ) ≈ 2.839e5 var per unit pf.
-    assert out["kvar"] == pytest.approx(1e-9 * 100e3 / (0.81 * math.sqrt(0.19)), rel=1e-5)
+    assert out["capacitor_q"] == pytest.approx(1e-9 * 100e3 / (0.81 * math.sqrt(0.19)), rel=1e-5)
 
 
 def test_a_stiff_source_leaves_only_the_transformer():
@@ -131,13 +120,13 @@ def test_a_stiff_source_leaves_only_the_transformer():
 def test_fault_level_alone_sets_the_resonance():
     out = values(run(xfmr_kva=None, xfmr_z_pct=None, source_mva=10))
     assert out["short_circuit_va"] == pytest.approx(10e6, rel=1e-12)
-    assert out["resonance_order"] == pytest.approx(math.sqrt(10e6 / out["kvar"]), rel=1e-12)
+    assert out["resonance_order"] == pytest.approx(math.sqrt(10e6 / out["capacitor_q"]), rel=1e-12)
 
 
 def test_no_supply_given_skips_the_resonance_with_a_warning():
     result = run(xfmr_kva=None, xfmr_z_pct=None)
     assert "resonance_order" not in result["outputs"]
-    assert {c["name"]: c["status"] for c in result["checks"]}["resonance"] == "warn"
+    assert checks(result)["resonance"] == "warn"
     assert result["series"]["x"]["label"] == "Target power factor"
 
 
@@ -145,7 +134,7 @@ def test_single_phase_gives_one_capacitance():
     result = run(phases="1", voltage=240, power=20, xfmr_kva=None, xfmr_z_pct=None)
     out = values(result)
     assert "c_wye" not in out and "c_delta" not in out
-    assert out["capacitor_a"] == pytest.approx(out["kvar"] / 240, rel=1e-12)  # I = Q/V
+    assert out["capacitor_a"] == pytest.approx(out["capacitor_q"] / 240, rel=1e-12)  # I = Q/V
 
 
 # ---- properties ---------------------------------------------------------------------------------
@@ -161,9 +150,9 @@ def test_the_corrected_load_meets_its_target(power, now, gain, voltage, phases):
     out = values(run(power=power, pf_now=now, pf_target=target, voltage=voltage, phases=phases,
                      xfmr_kva=None, xfmr_z_pct=None))
     # Complex power after the bank: P + j(P tan φ1 − Q_c); its power factor is the target.
-    s = complex(power * 1e3, power * 1e3 * math.tan(math.acos(now)) - out["kvar"])
+    s = complex(power * 1e3, power * 1e3 * math.tan(math.acos(now)) - out["capacitor_q"])
     assert s.real / abs(s) == pytest.approx(target, rel=1e-9)
-    assert out["kva_after"] == pytest.approx(abs(s), rel=1e-9)
+    assert out["apparent_after"] == pytest.approx(abs(s), rel=1e-9)
     ratio = out["line_a_after"] / out["line_a_before"]
     assert out["loss_reduction_pct"] == pytest.approx(100 * (1 - ratio ** 2), rel=1e-9, abs=1e-9)
     if phases == "3":
@@ -179,7 +168,7 @@ def test_resonance_order_falls_as_the_bank_grows(now, kva, z, steps):
     orders, banks = [], []
     for target in targets:
         out = values(run(power=200, pf_now=now, pf_target=target, xfmr_kva=kva, xfmr_z_pct=z))
-        banks.append(out["kvar"])
+        banks.append(out["capacitor_q"])
         orders.append(out["resonance_order"])
     assert banks == sorted(banks)  # a higher target needs a bigger bank ...
     assert orders == sorted(orders, reverse=True)  # ... which resonates lower
@@ -200,15 +189,16 @@ def test_a_detuned_bank_resonates_below_its_tuning_order(s_sc, share, p):
 def test_capacitance_and_currents_with_pint():
     # The barn bank worked in pint's units: C_Y = Q/(2πf V²), I = Q/(√3 V). pint has no var,
     # so reactive power is in kVA (the same dimension).
-    q = 71.04 * UREG.kVA
-    c_wye = (q / (2 * math.pi * UREG.Hz * 60 * (480 * UREG.V) ** 2)).to(UREG.F).magnitude
-    current = (q / (math.sqrt(3) * 480 * UREG.V)).to(UREG.A).magnitude
+    ureg = pytest.importorskip("pint").UnitRegistry()
+    q = 71.04 * ureg.kVA
+    c_wye = (q / (2 * math.pi * ureg.Hz * 60 * (480 * ureg.V) ** 2)).to(ureg.F).magnitude
+    current = (q / (math.sqrt(3) * 480 * ureg.V)).to(ureg.A).magnitude
     assert power_factor.capacitance_per_phase(71.04e3, 480, 60, "wye") == pytest.approx(c_wye,
                                                                                        rel=1e-12)
     assert power_factor.capacitance_per_phase(71.04e3, 480, 60, "delta") == pytest.approx(
         c_wye / 3, rel=1e-12)
-    assert api.run("pf-correction", {})["outputs"]["capacitor_a"]["value"] == pytest.approx(
-        current, rel=2e-4)  # the bank is 71.04 kvar to 4 figures
+    # The barn bank is 71.04 kvar to 4 figures.
+    assert values(run())["capacitor_a"] == pytest.approx(current, rel=2e-4)
 
 
 @pytest.mark.parametrize("now, target", [(0.78, 0.95), (0.6, 0.9), (0.85, 1.0)])
@@ -219,7 +209,7 @@ def test_target_met_in_a_pandapower_power_flow(now, target):
     bus = pp.create_bus(net, vn_kv=0.48)
     pp.create_ext_grid(net, bus, vm_pu=1.0)
     pp.create_load(net, bus, p_mw=0.150, q_mvar=0.150 * math.tan(math.acos(now)))
-    pp.create_shunt(net, bus, q_mvar=-out["kvar"] / 1e6, p_mw=0.0)  # capacitive: negative
+    pp.create_shunt(net, bus, q_mvar=-out["capacitor_q"] / 1e6, p_mw=0.0)  # capacitive: negative
     pp.runpp(net)
     p, q = net.res_ext_grid.p_mw.iloc[0], net.res_ext_grid.q_mvar.iloc[0]
     # The power flow converges to 1e-8 MVA (pandapower's default tolerance): the supply sees
@@ -240,7 +230,7 @@ def test_resonance_order_agrees_with_an_ngspice_ac_sweep(kva, z, pf_now, reactor
     # injected at the bus and |V| peaks at the parallel resonance.
     x_s = v * v / out["short_circuit_va"]
     p = (reactor_pct or 0) / 100
-    x_c = v * v / (out["kvar"] * (1 - p))
+    x_c = v * v / (out["capacitor_q"] * (1 - p))
     w1 = 2 * math.pi * f1
     elements = ["I1 0 1 DC 0 AC 1", f"LS 1 2 {x_s / w1!r}", f"RS 2 0 {x_s / 1000!r}",
                 f"C1 3 0 {1 / (w1 * x_c)!r}"]
@@ -259,7 +249,7 @@ def test_detuned_bank_checks_the_capacitor_voltage_against_ieee_18():
     within = run(voltage=400, frequency_hz=50, reactor_pct=7, capacitor_rated_v=440)
     over = run(voltage=480, reactor_pct=7, capacitor_rated_v=440)
     allowance = run(voltage=480, reactor_pct=7, capacitor_rated_v=480)
-    status = {name: {c["name"]: c["status"] for c in r["checks"]}["capacitor_voltage"]
+    status = {name: checks(r)["capacitor_voltage"]
               for name, r in (("within", within), ("over", over), ("allowance", allowance))}
     # 400/0.93 = 430 V ≤ 440 V; 480/0.93 = 516 V is 117 % of 440 V (> 110 %, IEEE 18) and
     # 108 % of 480 V (inside the 110 % allowance). By hand.
@@ -270,7 +260,7 @@ def test_suggested_detuning_moves_the_resonance_below_the_fifth():
     result = run()
     out = values(result)
     assert out["detuning_pct"] == 7.0 and out["detuned_resonance_order"] < 4.5
-    assert {c["name"]: c["status"] for c in result["checks"]}["detuned"] == "pass"
+    assert checks(result)["detuned"] == "pass"
 
 
 def test_a_bank_large_for_the_supply_is_warned():
@@ -278,12 +268,12 @@ def test_a_bank_large_for_the_supply_is_warned():
     # ΔU ≈ 100 × 0.4/3.75 = 10.7 % (by hand), above the 3 % step of common practice.
     result = run(power=300, pf_now=0.6, pf_target=1.0, xfmr_kva=150, xfmr_z_pct=4)
     assert values(result)["voltage_rise_pct"] == pytest.approx(10.67, abs=0.01)
-    assert {c["name"]: c["status"] for c in result["checks"]}["voltage_rise"] == "warn"
+    assert checks(result)["voltage_rise"] == "warn"
 
 
 def test_high_target_is_warned():
     result = run(pf_target=0.99)
-    assert {c["name"]: c["status"] for c in result["checks"]}["light_load"] == "warn"
+    assert checks(result)["light_load"] == "warn"
 
 
 def test_chart_marks_the_bank_and_the_characteristic_harmonics():
@@ -322,15 +312,15 @@ def test_medium_voltage_caution():
 ])
 def test_bad_inputs_get_field_messages(inputs, field, words):
     if field is None:
-        assert api.run("pf-correction", inputs)["ok"] is True
+        run(**inputs)
         return
-    error = error_of(**inputs)
-    assert error["field"] == field and words in error["message"]
+    refused = errors(**inputs)
+    assert list(refused) == [field] and words in refused[field]
 
 
 def test_leading_target_of_unity_is_accepted():
     # At pf 1 there is no leading or lagging: the sense does not matter.
-    assert api.run("pf-correction", {"pf_target": 1, "pf_target_sense": "leading"})["ok"]
+    run(pf_target=1, pf_target_sense="leading")
 
 
 @settings(max_examples=200, deadline=None)
@@ -344,3 +334,85 @@ def test_any_input_gives_a_result_or_field_errors(inputs):
     assert "internal error" not in text
     if not result["ok"]:
         assert all(e["field"] in inputs and e["message"] for e in result["errors"])
+
+
+# ---- thresholds: every limit a check uses, just inside and just outside ----------------------
+# Inputs are built from the constant each check reads, so that a changed judgement fails here.
+# The supply is given as a fault level at the bus (no transformer): S_sc is then exactly what
+# the test asks for.
+
+LOAD = dict(power=150, pf_now=0.78, pf_target=0.95, xfmr_kva=None, xfmr_z_pct=None)
+BANK_Q = power_factor.capacitor_reactive_power(150e3, 0.78, 0.95)  # [var], for S_sc below
+
+
+def _at_bus(short_circuit_power, **inputs):
+    return run(**{**LOAD, "source_mva": short_circuit_power / 1e6, **inputs})
+
+
+@pytest.mark.parametrize("share, status", [(0.99, None), (1.01, "warn")])
+def test_voltage_rise_threshold(share, status):
+    # ΔU = 100 Q/S_sc lands at `share` of VOLTAGE_RISE_LIMIT_PCT.
+    rise = pf_correction.VOLTAGE_RISE_LIMIT_PCT * share
+    result = _at_bus(100 * BANK_Q / rise)
+    assert values(result)["voltage_rise_pct"] == pytest.approx(rise, rel=1e-12)
+    assert checks(result).get("voltage_rise") == status
+
+
+# Each band edge whose other side is clear of the next harmonic's band (11 × 1.1 and 13 × 0.9
+# overlap, so the 11th's upper and the 13th's lower edges fall in the other band).
+BAND_EDGES = [(5, -1), (5, 1), (7, -1), (7, 1), (11, -1), (13, 1)]
+
+
+@pytest.mark.parametrize("harmonic, side", BAND_EDGES)
+@pytest.mark.parametrize("share, status", [(0.99, "warn"), (1.01, "pass")])
+def test_resonance_band_threshold(harmonic, side, share, status):
+    # h = √(S_sc/Q_c) lands at share × RESONANCE_BAND from the harmonic, below or above it.
+    order = harmonic * (1 + side * pf_correction.RESONANCE_BAND * share)
+    result = _at_bus(order * order * BANK_Q)
+    assert values(result)["resonance_order"] == pytest.approx(order, rel=1e-12)
+    assert checks(result)["resonance"] == status
+    if status == "warn":
+        assert f"{harmonic}th" in check_message(result, "resonance")
+
+
+@pytest.mark.parametrize("share, status", [(0.99, "pass"), (1.01, "warn")])
+def test_detuned_resonance_threshold(share, status):
+    # With a 2 % reactor, h' = 1/√(p + (1 − p) Q_c/S_sc) lands at `share` of the limit just
+    # below the lowest characteristic harmonic, 5 × (1 − RESONANCE_BAND).
+    p = 0.02
+    limit = power_factor.SIX_PULSE_HARMONICS[0] * (1 - pf_correction.RESONANCE_BAND)
+    order = limit * share
+    result = _at_bus(BANK_Q * (1 - p) / (1 / order ** 2 - p), reactor_pct=100 * p)
+    assert values(result)["detuned_resonance_order"] == pytest.approx(order, rel=1e-9)
+    assert checks(result)["detuned"] == status
+
+
+@pytest.mark.parametrize("limit, share, status", [
+    (power_factor.IEEE18_RMS_VOLTAGE, 0.99, "warn"),  # inside the continuous allowance
+    (power_factor.IEEE18_RMS_VOLTAGE, 1.01, "fail"),  # beyond it
+    (1.0, 0.99, "pass"),  # within rating
+    (1.0, 1.01, "warn"),  # above rating
+])
+def test_capacitor_voltage_thresholds(limit, share, status):
+    # A 7 % reactor on 480 V puts U_C = 480/0.93 on the capacitors; their rating is chosen so
+    # that U_C / U_rated lands at `share` of each limit.
+    u_c = power_factor.capacitor_voltage(480.0, 0.07)
+    result = run(voltage=480, reactor_pct=7, capacitor_rated_v=u_c / (limit * share))
+    assert checks(result)["capacitor_voltage"] == status
+
+
+def test_detuned_capacitors_without_a_rating_are_warned():
+    assert checks(run(reactor_pct=7))["capacitor_voltage"] == "warn"
+    assert "capacitor_voltage" not in checks(run(**LOAD))  # plain bank, no rating: silent
+
+
+@pytest.mark.parametrize("share, status", [(0.99, None), (1.01, "warn")])
+def test_high_target_threshold(share, status):
+    result = run(pf_target=pf_correction.HIGH_TARGET_PF * share)
+    assert checks(result).get("light_load") == status
+
+
+def test_conductor_factor_is_the_nec_multiple():
+    out = values(run())
+    assert out["conductor_a"] == pytest.approx(power_factor.NEC_460_8_FACTOR
+                                               * out["capacitor_a"], rel=1e-12)

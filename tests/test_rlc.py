@@ -1,43 +1,23 @@
 """switching-transient, rlc-resonance and inductive-kick: published worked examples, limiting
-cases, properties (energy balance, Q = 1/2ζ) and error paths, with ngspice and scipy.signal as
-independent references for the same circuits."""
+cases, properties (energy balance, Q = 1/2ζ), error paths and every check's threshold, with
+ngspice and scipy.signal as independent references for the same circuits. A test that runs
+ngspice skips itself when ngspice is missing (tests/spice.py)."""
 
-import doctest
 import math
 
 import numpy as np
 import pytest
 from hypothesis import assume, given, settings
 from hypothesis import strategies as st
-from scipy import integrate, signal
+from scipy import integrate, optimize, signal
 
 from build.reference import circuits
 from calc import api, rlc
+from calc.calculators import inductive_kick, rlc_resonance, switching_transient
 from tests import spice
+from tests.conftest import check_message, checks, errors, run, values
 
 TWO_PI = 2 * math.pi
-
-
-def run(calculator, **inputs):
-    result = api.run(calculator, inputs)
-    assert result["ok"], result
-    return result
-
-
-def values(result):
-    return {name: out["value"] for name, out in result["outputs"].items()}
-
-
-def error_of(calculator, **inputs):
-    result = api.run(calculator, inputs)
-    assert result["ok"] is False, result
-    (error,) = result["errors"]
-    return error
-
-
-def test_docstring_examples():
-    # The literal results in the numpydoc Examples (each checked by hand when written).
-    assert doctest.testmod(rlc).failed == 0
 
 
 # ---- switching-transient: published values ------------------------------------------------
@@ -78,8 +58,7 @@ def test_series_rlc_damping_numbers_match_the_published_example():
 
 # e^(−t/τ) at whole multiples of τ, to five figures: 0.36788, 0.13534, 0.049787, 0.018316,
 # 0.0067379 — Nilsson and Riedel, Electric Circuits, 10th ed., Table 7.1 (from memory); the
-# 63.2 % at τ and 99.3 % at 5τ of a rising response are the textbook figures REFERENCE_VALUES
-# section 10 quotes (read).
+# 63.2 % at τ and 99.3 % at 5τ of a rising response are the textbook figures (read).
 TAU_TABLE = [(1, 0.36788), (2, 0.13534), (3, 0.049787), (4, 0.018316), (5, 0.0067379)]
 
 
@@ -97,7 +76,7 @@ def test_first_order_response_at_multiples_of_tau(circuit, multiple, remaining):
 
 
 def test_63_percent_at_one_time_constant_by_default():
-    # A blank t means one time constant: 63.2 % (textbook; REFERENCE_VALUES section 10, read).
+    # A blank t means one time constant: 63.2 % (textbook figure, read).
     out = values(run("switching-transient"))
     assert out["percent_at_t"] == pytest.approx(63.2, abs=0.05)  # printed to 3 figures
     assert out["tau"] == pytest.approx(0.5 / 48, rel=1e-12)  # τ = L/R
@@ -116,7 +95,8 @@ def test_overshoot_matches_the_textbook_figures(zeta, overshoot_pct):
 
 
 def test_critical_resistance_gives_critical_damping():
-    # R_c = 2√(L/C) (REFERENCE_VALUES section 10, computed): ζ = 1 and no overshoot output.
+    # R_c = 2√(L/C), computed from ζ = (R/2)√(C/L) = 1 (Nilsson and Riedel, 10th ed., section
+    # 8.3 — from memory): ζ = 1 and no overshoot output.
     result = run("switching-transient", circuit="rlc", r=2 * math.sqrt(0.5 / 1e-4), l=0.5,
                  c=1e-4, source_v=24)
     assert values(result)["damping_ratio"] == pytest.approx(1.0, rel=1e-12)
@@ -354,9 +334,8 @@ def test_chosen_time_is_marked_unless_it_sits_on_a_tau_mark():
 def test_overshoot_is_a_warning_and_a_reverse_swing_mentions_electrolytics():
     step = run("switching-transient", circuit="rlc")
     release = run("switching-transient", circuit="rlc", position="2")
-    assert {c["name"]: c["status"] for c in step["checks"]}["overshoot"] == "warn"
-    (check,) = [c for c in release["checks"] if c["name"] == "overshoot"]
-    assert "reverse" in check["message"]
+    assert checks(step)["overshoot"] == "warn"
+    assert "reverse" in check_message(release, "overshoot")
 
 
 def test_capacitor_discharge_caution_states_the_energy():
@@ -381,8 +360,8 @@ def test_capacitor_discharge_caution_states_the_energy():
     ({"l": "10 uF"}, "l", "inductance"),
 ])
 def test_switching_bad_inputs_get_field_messages(inputs, field, words):
-    error = error_of("switching-transient", **inputs)
-    assert error["field"] == field and words in error["message"]
+    refused = errors("switching-transient", **inputs)
+    assert list(refused) == [field] and words in refused[field]
 
 
 # ---- rlc-resonance: published values -------------------------------------------------------
@@ -518,19 +497,18 @@ def test_sweep_marks_resonance_and_half_power_points():
 
 def test_voltage_magnification_is_warned():
     result = run("rlc-resonance", source_v="230 V")
-    (check,) = [c for c in result["checks"] if c["name"] == "magnification"]
     # Q V = 25 × 230 V = 5750 V (computed by hand)
-    assert check["status"] == "warn" and "5.75 kV" in check["message"]
+    assert checks(result)["magnification"] == "warn"
+    assert "5.75 kV" in check_message(result, "magnification")
     assert values(result)["reactive_v_at_f0"] == pytest.approx(5750, rel=1e-12)
 
 
 def test_overdamped_resonance_is_flagged():
     result = run("rlc-resonance", r=100)  # Q = √(1e-3/0.4e-6)/100 = 50/100 = 0.5 (by hand)
-    check = {c["name"]: c for c in result["checks"]}["sharpness"]
     assert values(result)["q"] == pytest.approx(0.5, rel=1e-12)
-    assert check["status"] == "pass"
+    assert checks(result)["sharpness"] == "pass"
     low_q = run("rlc-resonance", r=200)
-    assert {c["name"]: c["status"] for c in low_q["checks"]}["sharpness"] == "warn"
+    assert checks(low_q)["sharpness"] == "warn"
 
 
 @pytest.mark.parametrize("inputs, field, words", [
@@ -543,8 +521,8 @@ def test_overdamped_resonance_is_flagged():
     ({"c": "4 mH"}, "c", "capacitance"),
 ])
 def test_resonance_bad_inputs_get_field_messages(inputs, field, words):
-    error = error_of("rlc-resonance", **inputs)
-    assert error["field"] == field and words in error["message"]
+    refused = errors("rlc-resonance", **inputs)
+    assert list(refused) == [field] and words in refused[field]
 
 
 # ---- inductive-kick --------------------------------------------------------------------------
@@ -687,14 +665,14 @@ def test_snubber_energy_balance(capacitance, snubber_r):
 def test_switch_rating_check_passes_and_fails():
     fail = run("inductive-kick", suppression="varistor", switch_rating_v=60, **COIL)
     ok = run("inductive-kick", suppression="diode", switch_rating_v=60, **COIL)
-    assert {c["name"]: c["status"] for c in fail["checks"]}["switch_rating"] == "fail"
-    assert {c["name"]: c["status"] for c in ok["checks"]}["switch_rating"] == "pass"
+    assert checks(fail)["switch_rating"] == "fail"
+    assert checks(ok)["switch_rating"] == "pass"
 
 
 def test_unsuppressed_kick_warns_of_arcing():
     result = run("inductive-kick", suppression="none", **COIL)
-    (check,) = [c for c in result["checks"] if c["name"] == "unsuppressed"]
-    assert check["status"] == "warn" and "arc" in check["message"]
+    assert checks(result)["unsuppressed"] == "warn"
+    assert "arc" in check_message(result, "unsuppressed")
 
 
 def test_kick_chart_shows_coil_and_switch_voltages():
@@ -715,8 +693,8 @@ def test_kick_chart_shows_coil_and_switch_voltages():
     ({"snubber_c": 0}, "snubber_c", "out of range"),
 ])
 def test_kick_bad_inputs_get_field_messages(inputs, field, words):
-    error = error_of("inductive-kick", **{**COIL, **inputs})
-    assert error["field"] == field and words in error["message"]
+    refused = errors("inductive-kick", **{**COIL, **inputs})
+    assert list(refused) == [field] and words in refused[field]
 
 
 # ---- the circuits reference page ------------------------------------------------------------
@@ -724,9 +702,10 @@ def test_kick_bad_inputs_get_field_messages(inputs, field, words):
 def test_reference_page_draws_its_diagrams_and_tables_from_calc():
     page = circuits.PAGES["reference/circuits.md"](None)
     assert page.count("<svg") >= 6 and page.count("<svg") == page.count("</svg>")
-    # The τ table comes from switching_transient: 63.2 % at τ (REFERENCE_VALUES section 10).
+    # The τ table comes from switching_transient: 63.2 % at τ (textbook figure, read).
     assert "| 1τ | 63.2 % | 36.8 % |" in page
-    # The detuning table: p = 7 % tunes to 3.78 (REFERENCE_VALUES section 9, computed).
+    # The detuning table: p = 7 % tunes to n = 1/√p = 3.78 (textbook relation, read for 7 % →
+    # 189 Hz at 50 Hz; 3.78 computed).
     assert "| 7 % | 3.78 |" in page
 
 
@@ -743,3 +722,124 @@ def test_any_input_gives_a_result_or_field_errors(inputs):
         assert "internal error" not in text, (calculator, given_inputs, text)
         if not result["ok"]:
             assert all(e["message"] for e in result["errors"])
+
+
+# ---- thresholds: every limit a check uses, just inside and just outside ----------------------
+# Each test builds its inputs from the constant the check reads, so that a changed judgement
+# fails here. "Inside" is the side the check accepts (or stays silent on).
+
+def test_settling_band_threshold():
+    # The "settled" check turns from "still running" to "for good" at the settling time, the
+    # last exit from the SETTLING_BAND band (pass either way: it reports, it does not judge).
+    settle = rlc.settling_time("rl", 48.0, 0.5)
+    before = run("switching-transient", t=settle * 0.99)
+    after = run("switching-transient", t=settle * 1.01)
+    assert checks(before)["settled"] == checks(after)["settled"] == "pass"
+    assert "still running" in check_message(before, "settled")
+    assert "for good" in check_message(after, "settled")
+    band_pct = f"{100 * rlc.SETTLING_BAND:g} %"
+    assert band_pct in check_message(after, "settled")
+    # The response at those times lies outside and inside the band (τ ln(1/band) for RL).
+    assert 100 - values(before)["percent_at_t"] > 100 * rlc.SETTLING_BAND
+    assert 100 - values(after)["percent_at_t"] < 100 * rlc.SETTLING_BAND
+
+
+def _rlc_with_zeta(zeta, **inputs):
+    # L = 1 H, C = 1 F: ω0 = 1 rad/s and ζ = R/2 exactly.
+    return run("switching-transient", circuit="rlc", r=2.0 * zeta, l=1.0, c=1.0, source_v=10,
+               **inputs)
+
+
+def test_overshoot_threshold_at_critical_damping():
+    # Overshoot is warned while underdamped: ζ below 1 − CRITICAL_BAND.
+    limit = 1.0 - rlc.CRITICAL_BAND
+    ringing = _rlc_with_zeta(limit - rlc.CRITICAL_BAND)
+    critical = _rlc_with_zeta(limit + rlc.CRITICAL_BAND / 2)
+    assert checks(ringing)["overshoot"] == "warn"
+    assert "overshoot" not in checks(critical)
+    # And well clear of the band, at 0.99 and 1.01 of ζ = 1.
+    assert checks(_rlc_with_zeta(0.99))["overshoot"] == "warn"
+    assert "overshoot" not in checks(_rlc_with_zeta(1.01))
+
+
+def test_light_damping_threshold():
+    limit = switching_transient.LIGHT_DAMPING_ZETA
+    assert checks(_rlc_with_zeta(limit * 0.99))["light_damping"] == "warn"
+    assert "light_damping" not in checks(_rlc_with_zeta(limit * 1.01))
+
+
+def _series_with_q(q, **inputs):
+    # L = 1 mH, C = 0.4 µF: √(L/C) = 50 Ω, so Q = 50 Ω / R.
+    return run("rlc-resonance", r=50.0 / q, l="1 mH", c="0.4 uF", **inputs)
+
+
+def test_sharpness_threshold():
+    limit = rlc_resonance.SHARP_Q
+    assert checks(_series_with_q(limit * 0.99))["sharpness"] == "warn"
+    assert checks(_series_with_q(limit * 1.01))["sharpness"] == "pass"
+
+
+def test_magnification_threshold():
+    limit = rlc_resonance.MAGNIFYING_Q
+    assert "magnification" not in checks(_series_with_q(limit * 0.99))
+    assert checks(_series_with_q(limit * 1.01))["magnification"] == "warn"
+    parallel = run("rlc-resonance", topology="parallel", r=50.0 * limit * 1.01, l="1 mH",
+                   c="0.4 uF")  # parallel Q = R / 50 Ω
+    assert checks(parallel)["magnification"] == "warn"
+
+
+def test_switch_rating_threshold():
+    switch_v = values(run("inductive-kick", **COIL))["switch_v"]  # diode: V + V_F = 24.8 V
+    assert checks(run("inductive-kick", switch_rating_v=switch_v * 1.01,
+                      **COIL))["switch_rating"] == "pass"
+    assert checks(run("inductive-kick", switch_rating_v=switch_v * 0.99,
+                      **COIL))["switch_rating"] == "fail"
+
+
+def test_switch_rating_must_exceed_the_supply():
+    assert "switch_rating_v" in errors("inductive-kick", switch_rating_v=24 * 0.99, **COIL)
+    run("inductive-kick", switch_rating_v=24 * 1.01, **COIL)
+
+
+def test_varistor_clamp_must_exceed_the_supply():
+    assert "clamp_v" in errors("inductive-kick", suppression="varistor", clamp_v=24 * 0.99,
+                               **COIL)
+    out = values(run("inductive-kick", suppression="varistor", clamp_v=24 * 1.01, **COIL))
+    assert out["peak_v"] == pytest.approx(24 * 1.01, rel=1e-12)
+
+
+def test_varistor_clamp_ratio_when_none_is_entered():
+    out = values(run("inductive-kick", suppression="varistor", **COIL))
+    assert out["peak_v"] == pytest.approx(inductive_kick.VARISTOR_CLAMP_RATIO * 24, rel=1e-12)
+
+
+@pytest.mark.parametrize("share, status", [(0.99, "pass"), (1.01, "warn")])
+def test_unsuppressed_kick_threshold_is_the_paschen_minimum(share, status):
+    # The stray capacitance that puts the unsuppressed kick of a 24 V, 48 Ω, 50 mH coil at
+    # `share` of PASCHEN_MINIMUM_V (about 0.12 µF), found by root-finding on the closed form.
+    target = rlc.PASCHEN_MINIMUM_V * share
+
+    def excess(log_c):
+        return -rlc.capacitive_kick(24.0, 48.0, 0.05, math.exp(log_c), 0.2).peak_coil_v - target
+
+    stray = math.exp(optimize.brentq(excess, math.log(1e-9), math.log(1e-6), xtol=1e-14))
+    result = run("inductive-kick", supply_v=24, r=48, l="50 mH", suppression="none",
+                 stray_c=stray)
+    assert values(result)["unsuppressed_v"] == pytest.approx(target, rel=1e-9)
+    assert checks(result)["unsuppressed"] == status
+
+
+def test_slow_release_is_warned_for_a_plain_diode_only():
+    assert checks(run("inductive-kick", **COIL))["slow_release"] == "warn"
+    for suppression in ("diode_zener", "varistor", "rc", "none"):
+        assert "slow_release" not in checks(run("inductive-kick", suppression=suppression,
+                                                **COIL))
+
+
+def test_default_switch_limit_sizes_the_suggested_snubber():
+    # With no rating entered the snubber keeps the switch at DEFAULT_SWITCH_LIMIT_RATIO × the
+    # supply (the smallest C that does: the bisection ends within float precision of it).
+    limit = inductive_kick.DEFAULT_SWITCH_LIMIT_RATIO * 24
+    out = values(run("inductive-kick", suppression="rc", **COIL))
+    assert out["switch_v"] <= limit * (1 + 1e-12)
+    assert out["switch_v"] == pytest.approx(limit, rel=1e-6)

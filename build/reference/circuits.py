@@ -265,7 +265,8 @@ def damping_table():
         rows.append([f"{zeta:g}", f"{rlc.overshoot_pct(float(zeta)):.3g} %",
                      f"{peak.time:.3g}" if math.isfinite(peak.time) else "—", f"{settle:.3g}",
                      f"{1 / (2 * zeta):.3g}"])
-    return markdown_table(["ζ", "Overshoot", "Peak time × ω0", "Settling time (2 %) × ω0",
+    band = f"{100 * rlc.SETTLING_BAND:g} %"
+    return markdown_table(["ζ", "Overshoot", "Peak time × ω0", f"Settling time ({band}) × ω0",
                            "Q = 1/(2ζ)"], rows)
 
 
@@ -281,10 +282,11 @@ def detuning_table():
 
 
 def multiplier_table():
-    """kvar per kW to go from each present power factor to each target (P = 1)."""
+    """Capacitor reactive power per unit of real power (kvar per kW) to go from each present
+    power factor to each target."""
     present = np.round(np.arange(0.60, 0.91, 0.05), 2)
     targets = np.array([0.90, 0.92, 0.95, 0.98, 1.00])
-    grid = np.vectorize(power_factor.capacitor_kvar)(1.0, present[:, None],
+    grid = np.vectorize(power_factor.capacitor_reactive_power)(1.0, present[:, None],
                                                      np.maximum(targets[None, :], present[:, None]))
     rows = [[f"{now:.2f}"] + [f"{value:.3f}" if target > now else "—"
                               for value, target in zip(line, targets)]
@@ -293,6 +295,12 @@ def multiplier_table():
 
 
 # ---- the page ---------------------------------------------------------------------------------
+
+def _ordinals(orders):
+    """"5th, 7th, 11th or 13th"."""
+    words = [f"{h}th" for h in orders]
+    return ", ".join(words[:-1]) + " or " + words[-1]
+
 
 def circuits_page(team_config):
     """The reference page (the team's settings do not change it)."""
@@ -345,14 +353,16 @@ def circuits_page(team_config):
         pf_diagram(),
         "- Q_c = P(tan φ1 − tan φ2); capacitor current I = Q_c/(√3 V) three-phase, Q_c/V "
         "single-phase; per-phase capacitance C_Y = Q_c/(2πf V²) (wye), C_Δ = C_Y/3 (delta). "
-        "Conductors at least 135 % of the capacitor current (NEC 460.8(A)).\n"
+        f"Conductors at least {100 * power_factor.NEC_460_8_FACTOR:g} % of the capacitor "
+        "current (NEC 460.8(A)).\n"
         "- The bank and the supply inductance resonate in parallel at h = √(S_sc/Q_c), with "
         "S_sc = 100 S_T/Z% for a transformer on a stiff source; a bank resonating near the "
-        "5th, 7th, 11th or 13th harmonic of six-pulse drives amplifies their currents.\n"
+        f"{_ordinals(power_factor.SIX_PULSE_HARMONICS)} harmonic of six-pulse drives amplifies "
+        "their currents.\n"
         "- A detuning reactor p = X_L/X_C makes the bank inductive above n = 1/√p × f1; its "
         "parallel resonance with the supply falls to h' = 1/√(p + (1 − p)Q_c/S_sc), below n. "
-        "The capacitors then run at U_C = U/(1 − p): rate them for it (IEEE Std 18: 110 % of "
-        "rated voltage continuously).",
+        "The capacitors then run at U_C = U/(1 − p): rate them for it (IEEE Std 18: "
+        f"{100 * power_factor.IEEE18_RMS_VOLTAGE:g} % of rated voltage continuously).",
         "kvar per kW of load (the multiplier P × (tan φ1 − tan φ2)):",
         multiplier_table(),
         "Detuning factors:",

@@ -4,10 +4,10 @@ import numpy as np
 
 from build.reference import GENERATED_NOTE, markdown_table
 from calc import conductors, units, voltage_drop
-from calc.errors import InputError
+from calc.conductors import METRES_PER_KFT
+from calc.errors import ParameterError
 
 TEMPERATURES_C = np.array([20.0, 75.0, 90.0])  # 20 °C reference, 75 °C NEC tables, 90 °C rating
-METRES_PER_KFT = 304.8
 
 # Quick tables: circuits a technician meets most, at the given current, 3 % drop, copper in PVC.
 QUICK_CIRCUITS = {
@@ -50,7 +50,7 @@ def _metric_table(material):
         size = units.parse_conductor_size(label)
         try:
             conductors.check_made(size, material)
-        except InputError:
+        except ParameterError:  # not made in this material (IEC 60228 Class 2)
             continue
         r = _resistances(size, material) * 1e3  # Ω/km
         z = conductors.impedance(size, material, 70.0, 50.0, "pvc")
@@ -69,8 +69,8 @@ def longest_runs(region):
         for i, size in enumerate(QUICK_SIZES[region]):
             z = conductors.impedance(size, "cu", 75.0, frequency, "pvc")
             for j, current in enumerate(QUICK_CURRENTS_A):
-                grid[i, j] = voltage_drop.max_length(system, voltage, z.r_ac, z.x, QUICK_PF,
-                                                     QUICK_LIMIT_PCT, current=current)
+                grid[i, j] = voltage_drop.max_run_length(system, voltage, z.r_ac, z.x, QUICK_PF,
+                                                         QUICK_LIMIT_PCT, current=current)
         tables[label] = grid
     return tables
 

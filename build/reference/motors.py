@@ -1,9 +1,11 @@
-"""Reference: NEMA locked-rotor code letters and starting-method multipliers, from calc.motors."""
+"""Reference: NEMA locked-rotor code letters and starting-method multipliers, from
+calc.induction_motors, and insulation classes from calc.dc_motors."""
 
 import numpy as np
 
 from build.reference import GENERATED_NOTE, markdown_table
-from calc import motors
+from calc import dc_motors, units
+from calc import induction_motors as motors
 
 # Supplies for the locked-rotor-current-per-horsepower columns: (phases, voltage [V], heading).
 LR_SUPPLIES = {
@@ -14,7 +16,7 @@ LR_SUPPLIES = {
 
 # A motor whose across-the-line locked-rotor current is this multiple of its full-load current,
 # to show the starting methods in the multiples of FLC a technician reads on a clamp meter:
-# 6.5 × is the middle of the usual 6-8 × (REFERENCE_VALUES 4d, common practice).
+# 6.5 × lies in the usual 6-8 × (Design B about 5.5-7 ×), common practice.
 EXAMPLE_LR_MULTIPLE = 6.5
 REACTOR_TAPS = (0.50, 0.65, 0.80)  # usual reactor and resistor starter taps (common practice)
 
@@ -28,8 +30,8 @@ def code_letter_rows(region):
     columns = []
     for phases, voltage, _ in LR_SUPPLIES[region]:
         # One horsepower of output: the same function the calculator uses, on whole arrays.
-        columns.append((motors.locked_rotor_current(low, motors.HORSEPOWER_W, voltage, phases),
-                        motors.locked_rotor_current(high, motors.HORSEPOWER_W, voltage, phases)))
+        columns.append((motors.locked_rotor_current(low, units.HORSEPOWER_W, voltage, phases),
+                        motors.locked_rotor_current(high, units.HORSEPOWER_W, voltage, phases)))
     rows = []
     for n, letter in enumerate(letters):
         span = (f"{low[n]:g} – {high[n]:g}" if np.isfinite(high[n]) else f"{low[n]:g} and up")
@@ -63,7 +65,7 @@ def motors_page(team_config):
     limits = ", ".join(f"{limit:g} ×" for limit in motors.DEFAULT_CURRENT_LIMIT.values())
     classes = markdown_table(["Class", "Highest temperature"],
                              [[f"{name}", f"{limit:g} °C"]
-                              for name, limit in motors.INSULATION_CLASSES.items()])
+                              for name, limit in dc_motors.INSULATION_CLASSES.items()])
     return "\n\n".join([
         "# Motor starting: code letters and starting methods",
         GENERATED_NOTE,
@@ -77,8 +79,8 @@ def motors_page(team_config):
         markdown_table(["Letter", "kVA/hp", *[f"A/hp, {h}" for h in headings]],
                        code_letter_rows(region), "l" + "r" * (1 + len(headings))),
         "Example: a 10 hp, 460 V, code H motor draws 6.3 to 7.1 kVA/hp, so between "
-        f"{10 * motors.locked_rotor_current(6.3, motors.HORSEPOWER_W, 460.0, 3):.1f} and "
-        f"{10 * motors.locked_rotor_current(7.1, motors.HORSEPOWER_W, 460.0, 3):.1f} A "
+        f"{10 * motors.locked_rotor_current(6.3, units.HORSEPOWER_W, 460.0, 3):.1f} and "
+        f"{10 * motors.locked_rotor_current(7.1, units.HORSEPOWER_W, 460.0, 3):.1f} A "
         "across the line.",
         "## Starting methods",
         "Line current drawn from the supply and torque left at standstill, as shares of the "

@@ -6,6 +6,11 @@ import numpy as np
 from build.reference import GENERATED_NOTE, markdown_table
 from calc import protection, units
 
+MCCB_TABLE_MULTIPLE = 10  # the moulded-case tables take the usual 10 × In instantaneous setting
+_MCCB_IA = MCCB_TABLE_MULTIPLE * (1 + protection.MCCB_TOLERANCE_PCT / 100)  # Ia in × In
+_MCCB_SETTING = f"{MCCB_TABLE_MULTIPLE} × In + {protection.MCCB_TOLERANCE_PCT:g} %"
+_MA = 1e3  # mA per A
+
 # Longest-run tables: the circuits a technician meets most, each region's usual U0 and a typical
 # Ze at the board (TN-C-S 0.35 Ω is a common supplier's declared maximum in IEC countries, from
 # memory; 0.15 Ω is an invented North American panel fed from a nearby transformer).
@@ -17,8 +22,8 @@ LONGEST_RUN_CIRCUITS = {
                        ("10 mm²", "4 mm²"), ("16 mm²", "6 mm²")),
             "breakers": ("B6", "B10", "B16", "B20", "B32", "C10", "C16", "C20", "C32", "D16")},
     "na": {"voltage": 120.0, "ze": 0.15, "temperature_c": 75.0, "frequency_hz": 60.0,
-           "note": "120 V, Ze 0.15 Ω, copper at 75 °C, 60 Hz; moulded-case instantaneous "
-                   "10 × In + 20 % tolerance",
+           "note": f"120 V, Ze 0.15 Ω, copper at 75 °C, 60 Hz; moulded-case instantaneous "
+                   f"{_MCCB_SETTING} tolerance",
            "cables": (("14 AWG", "14 AWG"), ("12 AWG", "12 AWG"), ("10 AWG", "10 AWG"),
                       ("8 AWG", "10 AWG"), ("6 AWG", "10 AWG")),
            "breakers": ("15 A 10x", "20 A 10x", "30 A 10x", "40 A 10x", "50 A 10x", "60 A 10x")},
@@ -34,7 +39,7 @@ BAND_USES = {"B": "resistive loads, lighting, long final circuits",
 
 def longest_run_grid(region):
     """Array [cable, breaker] of the longest run [m] that passes Zs × Ia ≤ U0, by calc's own
-    loop_impedance_per_metre and max_length."""
+    loop_impedance_per_metre and max_length_for_disconnection."""
     circuit = LONGEST_RUN_CIRCUITS[region]
     rows = []
     for line, cpc in circuit["cables"]:
@@ -43,14 +48,14 @@ def longest_run_grid(region):
             circuit["temperature_c"], circuit["frequency_hz"])
         currents = [protection.operating_current(protection.parse_breaker(b))
                     for b in circuit["breakers"]]
-        rows.append([protection.max_length(circuit["voltage"], circuit["ze"], z, ia)
-                     for ia in currents])
+        rows.append([protection.max_length_for_disconnection(circuit["voltage"], circuit["ze"],
+                                                             z, ia) for ia in currents])
     return np.array(rows)
 
 
 def ul943_times():
     """UL 943 greatest trip times [s] at UL943_TABLE_MA (numpy, the calculator's formula)."""
-    return protection.gfci_time_limit(np.asarray(UL943_TABLE_MA, dtype=float) * 1e-3)
+    return protection.gfci_time_limit(np.asarray(UL943_TABLE_MA, dtype=float) / _MA)
 
 
 def _metres(value, region):
@@ -71,7 +76,8 @@ def _longest_run_table(region):
 def _band_table():
     rows = [[letter, f"{low:g} × In", f"{high:g} × In", BAND_USES[letter]]
             for letter, (low, high) in protection.MCB_INSTANTANEOUS_BANDS.items()]
-    return markdown_table(["Type", "Does not trip within 0.1 s at", "Trips within 0.1 s by",
+    test = f"{protection.INSTANTANEOUS_TEST_TIME_S:g} s"
+    return markdown_table(["Type", f"Does not trip within {test} at", f"Trips within {test} by",
                            "Usual for (common practice)"], rows, "lrrl")
 
 
@@ -91,10 +97,11 @@ def _mcb_zs_table():
 def _mccb_zs_table():
     rows = []
     for rating in MCCB_TABLE_RATINGS_A:
-        ia = protection.operating_current(protection.parse_breaker(f"{rating} A 10x"))
+        ia = protection.operating_current(
+            protection.parse_breaker(f"{rating} A {MCCB_TABLE_MULTIPLE}x"))
         limits = [f"{v / ia:.3g} Ω" for v in MCCB_TABLE_VOLTAGES_V]
         rows.append([f"{rating} A", f"{ia:g} A", *limits])
-    return markdown_table(["Rating", "Ia (10 × In + 20 %)",
+    return markdown_table(["Rating", f"Ia ({_MCCB_SETTING})",
                            *[f"Zs max at U0 = {v:g} V" for v in MCCB_TABLE_VOLTAGES_V]], rows)
 
 
@@ -119,7 +126,8 @@ def _rcd_table():
     for device, name in (("rcd", "General type"), ("rcd-s", "Type S (time-delayed)")):
         cells = [name]
         for multiple, (least, greatest) in protection.RCD_BREAK_TIMES_S[device].items():
-            span = f"{least * 1e3:g}–{greatest * 1e3:g} ms" if least else f"≤ {greatest * 1e3:g} ms"
+            span = (f"{least * _MA:g}–{greatest * _MA:g} ms" if least
+                    else f"≤ {greatest * _MA:g} ms")
             cells.append(span)
         rows.append(cells)
     return markdown_table(["RCD", "at IΔn", "at 2 IΔn", "at 5 IΔn"], rows, "lrrr")
@@ -139,14 +147,20 @@ def _interrupting_table():
 def protection_page(team_config):
     region = team_config.region
     other = "iec" if region == "na" else "na"
-    mcb = ["## MCBs: Ia and the largest Zs at U0 = 230 V",
+    test = f"{protection.INSTANTANEOUS_TEST_TIME_S:g} s"
+    table_time = f"{protection.disconnection_time(MCB_TABLE_VOLTAGE_V):g} s"
+    tn, tt = (f"{protection.DISTRIBUTION_TIME_S[s]:g} s" for s in ("tn", "tt"))
+    low_ma, high_ma = (f"{i * _MA:g}" for i in protection.GFCI_CURVE_RANGE_A)
+    additional = f"{protection.ADDITIONAL_PROTECTION_A * _MA:g} mA"
+    mcb = [f"## MCBs: Ia and the largest Zs at U0 = {MCB_TABLE_VOLTAGE_V:g} V",
            "Ia is the upper band limit × In; the TN condition Zs × Ia ≤ U0 (IEC 60364-4-41 "
-           "411.4.4) gives Zs max = U0 / Ia. The instantaneous trip opens within 0.1 s, so "
-           "these values serve the 0.4 s of Table 41.1 and the 5 s of distribution circuits "
-           "alike (a maker's curve may allow more at 5 s).", _mcb_zs_table()]
+           f"411.4.4) gives Zs max = U0 / Ia. The instantaneous trip opens within {test}, so "
+           f"these values serve the {table_time} of Table 41.1 and the {tn} of distribution "
+           f"circuits alike (a maker's curve may allow more at {tn}).", _mcb_zs_table()]
     mccb = ["## Moulded-case breakers: Ia and the largest Zs",
-            "Instantaneous setting 10 × In with the usual ± 20 % pickup tolerance (common "
-            "practice, from memory): Ia = 12 × In. Use the maker's setting and tolerance where "
+            f"Instantaneous setting {MCCB_TABLE_MULTIPLE} × In with the usual "
+            f"± {protection.MCCB_TOLERANCE_PCT:g} % pickup tolerance (common practice, from "
+            f"memory): Ia = {_MCCB_IA:g} × In. Use the maker's setting and tolerance where "
             "known; adjustable trips differ.", _mccb_zs_table()]
     parts = ["# Protection reference", GENERATED_NOTE,
              "Trip bands, disconnection times, the longest run a breaker still protects, GFCI "
@@ -154,29 +168,33 @@ def protection_page(team_config):
              "calculated trip is not a test: verify with a loop-impedance tester and an RCD / "
              "GFCI tester as your local rules require; breaker curves vary by maker.",
              "## MCB instantaneous trip bands (IEC 60898-1)", _band_table(),
-             "Source: IEC 60898-1 (bands read; the 0.1 s test rule from memory). Preferred "
+             f"Source: IEC 60898-1 (bands read; the {test} test rule from memory). Preferred "
              f"ratings: {', '.join(str(r) for r in protection.MCB_PREFERRED_RATINGS_A)} A "
              "(read)."]
     parts += (mccb + mcb) if region == "na" else (mcb + mccb)
     parts += ["## Maximum disconnection times (IEC 60364-4-41 Table 41.1)",
               _disconnection_table(),
-              "Final circuits up to 32 A (411.3.2.2, 2005 edition; AMD1:2017 and BS 7671:2018 "
-              "extend it to 63 A socket-outlet circuits). Distribution circuits: 5 s in TN "
-              "(411.3.2.3, read), 1 s in TT (411.3.2.4, from memory). TN condition Zs × Ia ≤ U0; "
-              "TT condition R_A × IΔn ≤ 50 V (411.5.3). Source: IEC 60364-4-41 (read as "
-              "quoted).",
+              f"Final circuits up to {protection.TABLE_41_1_MAX_RATING_A:g} A (411.3.2.2, 2005 "
+              "edition; AMD1:2017 and BS 7671:2018 extend it to 63 A socket-outlet circuits). "
+              f"Distribution circuits: {tn} in TN (411.3.2.3, read), {tt} in TT (411.3.2.4, from "
+              "memory). TN condition Zs × Ia ≤ U0; TT condition R_A × IΔn ≤ 50 V (411.5.3). "
+              "Source: IEC 60364-4-41 (read as quoted).",
               "## Longest run for the TN check",
               "Where Zs = Ze + (R1 + R2) × L reaches U0 / Ia; R1 + R2 from IEC 60228 / NEC "
               "Chapter 9 Table 8 at the stated temperature, reactance included. \"none\" means "
               "Ze alone is too high for that breaker.",
               _longest_run_table(region), _longest_run_table(other).replace("### ", "### Also: "),
               "## GFCI trip time (UL 943, Class A)",
-              "Trips at 6 mA and above, never below 4 mA; greatest trip time T = (20 / I)^1.43 s "
-              "with I in mA, for 6 to 264 mA. Source: UL 943 (read as quoted).", _ul943_table(),
+              f"Trips at {protection.GFCI_MUST_TRIP_A * _MA:g} mA and above, never below "
+              f"{protection.GFCI_NO_TRIP_A * _MA:g} mA; greatest trip time T = "
+              f"({protection.GFCI_CURVE_A * _MA:g} / I)^{protection.GFCI_CURVE_EXPONENT:g} s "
+              f"with I in mA, for {low_ma} to {high_ma} mA. Source: UL 943 (read as quoted).",
+              _ul943_table(),
               "## RCD break times (IEC 61008-1 / IEC 61009-1)", _rcd_table(),
-              "An RCD must not trip at 50 % of IΔn. 30 mA devices give additional protection "
-              "(IEC 60364-4-41 415.1.1). Type S are made for IΔn above 30 mA. Source: IEC "
-              "61008-1 / 61009-1 (from memory).",
+              f"An RCD must not trip at {protection.RCD_NO_TRIP_FRACTION * 100:g} % of IΔn. "
+              f"{additional} devices give additional protection (IEC 60364-4-41 415.1.1). Type S "
+              f"are made for IΔn above {additional}. Source: IEC 61008-1 / 61009-1 (from "
+              "memory).",
               "## Interrupting ratings: the X/R of the test",
               "A UL 489 interrupting rating holds up to the X/R of its test circuit (from "
               "memory). Where the available fault current has a higher X/R (close to large "

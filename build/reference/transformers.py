@@ -27,6 +27,11 @@ FAULT_TABLES = {"na": (480.0, (3, 75, 150, 300, 500, 750, 1000, 1500, 2000, 2500
 FAULT_Z_PCT = (2.0, 3.0, 4.0, 5.0, 5.75, 6.0, 7.0)
 PRIMARY_V = 13800.0  # the primary does not change an infinite-source fault; named for the path
 
+TOLERANCE_PCT = 100 * transformers.IMPEDANCE_TOLERANCE  # 7.5 % of the nameplate %Z
+# How much more fault current a unit at the low end of its impedance tolerance gives [%].
+LOW_Z_GAIN_PCT = 100 * (1 / (1 - transformers.IMPEDANCE_TOLERANCE) - 1)
+EXCITATION_PCT = 100 * transformers.EXCITATION_LIMIT
+
 # Typical short-circuit impedance, each row with its source and how far to trust it.
 TYPICAL_IMPEDANCE = (
     ("Minimum %Z, IEC 60076-5 Table 1", "≤ 630 kVA: 4.0 %; 631-1250: 5.0 %; 1251-2500: 6.0 %; "
@@ -36,18 +41,19 @@ TYPICAL_IMPEDANCE = (
     ("Liquid-filled substation and pad-mount, 750-2500 kVA (US)", "5.75 %",
      "common practice under the C57.12 series"),
     ("600 V dry-type, 15-1000 kVA (US)", "about 3-7 %, by design", "common practice"),
-    ("Impedance tolerance, two-winding", "± 7.5 % of the specified %Z (± 10 % for three-winding, "
-     "auto and zig-zag)", "IEEE C57.12.00 §9.2 (read for 7.5 %; 10 % from memory)"),
+    ("Impedance tolerance, two-winding", f"± {TOLERANCE_PCT:g} % of the specified %Z (± 10 % for "
+     "three-winding, auto and zig-zag)", f"IEEE C57.12.00 §9.2 (read for {TOLERANCE_PCT:g} %; 10 % "
+     "from memory)"),
 )
 
 BUCK_BOOST_SUPPLIES_V = (120.0, 208.0, 240.0, 277.0, 480.0)
 
 
 def full_load_table(phases, ratings_kva, voltages):
-    """Array [rating, voltage] of full-load currents [A], by calc's full_load_current (numpy)."""
+    """Array [rating, voltage] of full-load currents [A], by calc's rated_current (numpy)."""
     kva = np.asarray(ratings_kva, dtype=float)[:, None]
     volts = np.asarray(voltages, dtype=float)[None, :]
-    return transformers.full_load_current(kva * 1e3, volts, phases)
+    return transformers.rated_current(kva * 1e3, volts, phases)
 
 
 def _amps(value):
@@ -104,7 +110,8 @@ def _tap_table():
         factor = transformers.tap_voltage_factor(tap)
         rows.append([f"{tap:+g} %" if tap else "0 % (rated)",
                      f"{480 * (1 + tap / 100):.0f} V", f"{13800 * (1 + tap / 100) / 1e3:.2f} kV",
-                     f"{208 * factor:.1f} V", f"{400 * factor:.1f} V", f"{100 * (factor - 1):+.2f} %"])
+                     f"{208 * factor:.1f} V", f"{400 * factor:.1f} V",
+                     f"{100 * (factor - 1):+.2f} %"])
     return markdown_table(["Tap", "Suits a 480 V supply of", "or 13.8 kV of",
                            "208 V secondary from a rated supply", "400 V secondary",
                            "Change"], rows)
@@ -120,7 +127,8 @@ def _buck_boost_table():
             rows.append([f"{supply:g} V", option.windings, f"{option.shunt_v:g} V",
                          f"{option.series_v:g} V", f"{option.output_v:.1f} V", f"{buck:.1f} V"])
     return markdown_table(["Supply", "Transformer", "Primary connected for",
-                           "Secondary connected for", "Boost output", "Buck output"], rows, "lllrrr")
+                           "Secondary connected for", "Boost output", "Buck output"], rows,
+                          "lllrrr")
 
 
 # ---- connection diagrams, drawn here as SVG (no drawing library) ------------------------------
@@ -276,18 +284,18 @@ def transformers_page(team_config):
         "Bolted three-phase fault at the secondary terminals, I = I_FL × 100 / %Z, nominal "
         "voltage (c = 1), no source impedance, so the upper bound for that nameplate. The "
         "utility's source impedance lowers it (see the fault-current calculator); a unit at "
-        "its −7.5 % impedance tolerance gives 8 % more.",
+        f"its −{TOLERANCE_PCT:g} % impedance tolerance gives {LOW_Z_GAIN_PCT:.0f} % more.",
         _fault_table(region),
         _fault_table(other).replace("### ", "### Also: "),
-        "## No-load taps (± 2 × 2.5 %)",
+        f"## No-load taps (± {transformers.TAP_STEPS} × {transformers.TAP_STEP_PCT:g} %)",
         _tap_table(),
         "A tap is named by the primary voltage it suits. On a rated supply, a minus tap raises "
         "the secondary and a plus tap lowers it. Source: IEEE C57.12.10 (read). Change taps "
         "only with the transformer de-energised, locked out and proved dead.",
         "## Buck-boost outputs",
         "Standard low-voltage units connected as an autotransformer, the primary across the "
-        "supply (not over 105 % of its rating) and the secondary in series, aiding for boost "
-        "and opposing for buck: V_out = V_in (1 ± V_secondary / V_primary).",
+        f"supply (not over {EXCITATION_PCT:g} % of its rating) and the secondary in series, "
+        "aiding for boost and opposing for buck: V_out = V_in (1 ± V_secondary / V_primary).",
         _buck_boost_table(),
         "## Connection diagrams",
         "Drawn at build time. H terminals are the high-voltage winding, X the low-voltage; X0 is "

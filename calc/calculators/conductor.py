@@ -1,0 +1,271 @@
+"""conductor: what resistance and reactance does one conductor have at its temperature and
+frequency, and what effective impedance does that give for voltage drop?
+
+DC resistance from resistivity and from the published table, AC resistance with the IEC 60287-1-1
+skin and proximity effects, series reactance from the geometry (or NEC Chapter 9 Table 9), and
+Z = R cos θ + X sin θ at the NEC's 0.85 power factor.
+"""
+
+import math
+
+from calc import cautions, conductors, units
+from calc.calculators import _inputs
+from calc.calculators._conductors import conductor_fields
+from calc.conductors import (
+    ALPHA_20C,
+    GMR_FRACTION,
+    LAY_FACTOR_STRANDED,
+    MATERIAL_NAMES,
+    METRES_PER_KFT,
+    POWER_FACTOR_NEC,
+    RESISTIVITY_20C,
+    SKIN_X_LIMIT,
+    STEEL_CONDUIT_AC_FACTOR,
+    STEEL_CONDUIT_X_FACTOR,
+    TABLE9_FREQUENCY_HZ,
+)
+from calc.spec import Calculator, Input, Output, Result
+from calc.units import format_quantity as fq
+
+# Physics (ρ/A × lay factor) against IEC 60228: the table gives maxima, so a conforming conductor
+# lies below them; ρ/A lands at 88 to 100 % of the maximum (computed over IEC 60228 Table 2).
+IEC60228_AGREEMENT = (0.88, 1.0)
+# Physics against NEC Chapter 9 Table 8: within 3 % (the lay-factor check reproduces the stranded
+# columns within 1 %, computed; the rest allows for the NEC's rounded areas).
+TABLE8_AGREEMENT = 0.03
+# Z at 0.85 pf from the geometric X against Z from Table 9's XL: warn beyond 5 % (a margin chosen
+# here, about the rounding of Table 9's two-figure Z column).
+TABLE9_Z_AGREEMENT = 0.05
+CHART_POINTS = 28  # temperature segments of the resistance chart
+CHART_TEMPERATURES_C = (-20.0, 120.0)  # the chart's span, widened to include the input
+
+SOURCES = (
+    "Resistivity and α: IEC 60028 (copper, 1/58 Ω·mm²/m, 0.00393 /K; read, as reproduced in "
+    "Agrawal, Industrial Power Engineering and Applications Handbook, Table 30.1); IEC 60889 "
+    "(aluminium 1350, 0.028264 Ω·mm²/m, 0.00403 /K) — from memory.",
+    "NEC Chapter 9 Table 8 (DC resistance at 75 °C) and Table 9 (AC resistance and "
+    "reactance, 60 Hz, 75 °C); IEC 60228 Tables 1 and 2 and Annex B.",
+    "Skin and proximity effect: IEC 60287-1-1 clauses 2.1.2 and 2.1.4 — from memory.",
+    "GMR and X = 2πf 2×10⁻⁷ ln(GMD/GMR): Glover, Sarma & Overbye, Power System Analysis "
+    "and Design, 5th ed., section 4.5, Table A.3 — from memory.",
+    "Insulation thickness for touching conductors: UL 83 (THHN), IEC 60502-1 (PVC) — "
+    "from memory.",
+)
+CAUTION_AMPACITY = (
+    "Ampacity, the insulation's temperature rating, termination ratings and derating for "
+    "grouping or ambient temperature are not checked here; size conductors by your code.")
+
+
+def _per_length(value, metric):
+    """Ω/m shown as the trade reads it: Ω/kft first for AWG/kcmil, Ω/km first for mm²."""
+    kft = f"{fq(value * METRES_PER_KFT, '')} Ω/kft"
+    km = fq(value, "ohm/m")
+    return f"{km} ({kft})" if metric else f"{kft} ({km})"
+
+
+def _geometry_text(size, raceway, spacing_m, spacing):
+    """How the axial spacing was found: given, or touching insulated conductors."""
+    if spacing_m is not None:
+        return f"given axial spacing {fq(spacing, 'm')} (trefoil)"
+    insulation = "PVC (IEC 60502-1)" if size.system == "mm2" else "THHN"
+    where = "in the raceway" if raceway != "none" else "(no spacing given)"
+    return (f"touching conductors {where}: typical {insulation} outer diameter "
+            f"{fq(spacing, 'm')} (trefoil)")
+
+
+def _steps(result, inputs, z, z_085, area_display, metric):
+    size, material = inputs["size"], inputs["material"]
+    temperature, frequency, raceway = (inputs["temperature_c"], inputs["frequency_hz"],
+                                       inputs["raceway"])
+    entry = conductors.table_resistance(size, material)
+    rho20 = RESISTIVITY_20C[material] * 1e6
+    result.step(f"Area of {size.label}" + (" (ASTM B258)" if size.system == "awg" else ""),
+                "A", f"= {area_display}")
+    result.step(f"DC resistance from resistivity ({MATERIAL_NAMES[material]}, lay factor "
+                f"{LAY_FACTOR_STRANDED})", "R = ρ20 [1 + α20 (T − 20)] / A × k_lay",
+                f"= {rho20:.6g} Ω·mm²/m × [1 + {ALPHA_20C[material]} × ({temperature:g} − 20)] / "
+                f"{size.area_m2 * 1e6:.4g} mm² × {LAY_FACTOR_STRANDED} = "
+                f"{_per_length(z.r_dc_physics, metric)}")
+    if entry is not None:
+        r_ref, t_ref, alpha_ref, source = entry
+        result.step(f"DC resistance from the table: {source}", "R = R_ref [1 + α (T − T_ref)]",
+                    f"= {_per_length(r_ref, metric)} × [1 + {alpha_ref} × ({temperature:g} − "
+                    f"{t_ref:g})] = {_per_length(z.r_dc_table, metric)}")
+    if frequency > 0:
+        result.step("Skin effect (IEC 60287-1-1 2.1.2)",
+                    "x_s² = 8πf / R' × 10⁻⁷; y_s = x_s⁴ / (192 + 0.8 x_s⁴)",
+                    f"x_s = {z.x_s:.3g}; y_s = {z.y_s:.3g}")
+        result.step(f"Proximity effect (IEC 60287-1-1 2.1.4), d_c = {fq(z.diameter, 'm')}, "
+                    f"s = {fq(z.spacing, 'm')}",
+                    "y_p = F (d_c/s)² [0.312 (d_c/s)² + 1.18 / (F + 0.27)]", f"y_p = {z.y_p:.3g}")
+        steel = f" × {STEEL_CONDUIT_AC_FACTOR} (steel conduit)" if raceway == "steel" else ""
+        result.step("AC resistance", "R_ac = R_dc [1 + k (y_s + y_p)]",
+                    f"= {_per_length(z.r_dc, metric)} × [1 + ({z.y_s:.3g} + {z.y_p:.3g}){steel}] "
+                    f"= {_per_length(z.r_ac, metric)}")
+        if inputs["method"] == "table" and z.x_table9 is not None:
+            result.step("Series reactance from NEC Chapter 9 Table 9 (method table)",
+                        f"X = XL_Table9 × f / {TABLE9_FREQUENCY_HZ:g} Hz",
+                        f"= {_per_length(z.x, metric)}")
+        steel_x = f" × {STEEL_CONDUIT_X_FACTOR}" if raceway == "steel" else ""
+        strands = conductors.strand_count(size)
+        result.step(f"Series reactance: GMR = {GMR_FRACTION[strands]:.4g} r ({strands} strands) "
+                    f"= {z.gmr * 1e3:.4g} mm; GMD = {z.gmd * 1e3:.4g} mm",
+                    "X = 2πf × 2×10⁻⁷ × ln(GMD / GMR)" + steel_x,
+                    f"= 2π × {frequency:g} Hz × 2×10⁻⁷ × ln({z.gmd * 1e3:.4g} / "
+                    f"{z.gmr * 1e3:.4g}){steel_x} = {_per_length(z.x_geometry, metric)}")
+    else:
+        result.step("DC (0 Hz): no skin or proximity effect and no reactance", "R_ac = R_dc; X = 0",
+                    f"= {_per_length(z.r_ac, metric)}")
+    sin_nec = math.sin(math.acos(POWER_FACTOR_NEC))
+    result.step(f"Effective impedance at {POWER_FACTOR_NEC:g} power factor (NEC Chapter 9 "
+                "Table 9 note 2)", f"Z = R_ac cos θ + X sin θ, cos θ = {POWER_FACTOR_NEC:g}",
+                f"= {_per_length(z.r_ac, metric)} × {POWER_FACTOR_NEC:g} + "
+                f"{_per_length(z.x, metric)} × {sin_nec:.3g} = "
+                f"{_per_length(z_085, metric)}")
+
+
+def _checks(result, inputs, z, metric):
+    frequency, method = inputs["frequency_hz"], inputs["method"]
+    if z.r_dc_table is not None:
+        ratio = z.r_dc_physics / z.r_dc_table
+        if metric:
+            low, high = IEC60228_AGREEMENT
+            ok = low <= ratio <= high
+            result.check("table_agreement", "pass" if ok else "warn",
+                         f"Physics gives {ratio:.1%} of the IEC 60228 maximum; a conforming "
+                         "conductor lies below that maximum (expected "
+                         f"{low * 100:g}–{high * 100:g} %). "
+                         "IEC 60228 (the maximum) and the maker's data are the basis for "
+                         "compliance.")
+        else:
+            ok = abs(ratio - 1) <= TABLE8_AGREEMENT
+            result.check("table_agreement", "pass" if ok else "warn",
+                         f"Physics and NEC Chapter 9 Table 8 differ by {ratio - 1:+.1%} (pass "
+                         f"within {TABLE8_AGREEMENT * 100:g} %). NEC Table 8 is the basis the code "
+                         "uses for NEC calculations.")
+    if frequency > 0:
+        valid = z.x_s <= SKIN_X_LIMIT
+        result.check("skin_effect_validity", "pass" if valid else "warn",
+                     f"x_s = {z.x_s:.3g}; the IEC 60287-1-1 skin formula holds for x_s ≤ "
+                     f"{SKIN_X_LIMIT}" + ("." if valid else "; beyond it use an exact (Bessel) "
+                                          "solution or the maker's AC resistance."))
+    if z.x_table9 is not None:
+        effect = (conductors.effective_impedance(z.r_ac, z.x_geometry)
+                  / conductors.effective_impedance(z.r_ac, z.x_table9) - 1)
+        used = "Table 9's XL is used (method table)" if method == "table" else (
+            "the geometric X is used; choose method table to use Table 9's")
+        status = "pass" if method == "table" or abs(effect) <= TABLE9_Z_AGREEMENT else "warn"
+        result.check("table9_reactance", status,
+                     f"NEC Chapter 9 Table 9 lists XL = {_per_length(z.x_table9, metric)} "
+                     f"(scaled to {frequency:g} Hz); touching-conductor geometry gives "
+                     f"{_per_length(z.x_geometry, metric)} ({z.x_geometry / z.x_table9 - 1:+.0%})"
+                     ". Table 9 assumes RHH conductors in cradled configuration. Effect on Z at "
+                     f"{POWER_FACTOR_NEC:g} pf: {effect:+.1%} (warn beyond "
+                     f"{TABLE9_Z_AGREEMENT * 100:g} % if the geometry is used); {used}. For NEC "
+                     "voltage drop Table 9 is the usual basis.")
+
+
+def _describe(result, inputs, z, metric):
+    size, raceway = inputs["size"], inputs["raceway"]
+    geometry = _geometry_text(size, raceway, inputs["spacing_m"], z.spacing)
+    result.assumptions += [
+        f"Concentric stranded {MATERIAL_NAMES[inputs['material']]} conductor, "
+        f"{conductors.strand_count(size)} strands "
+        + ("(IEC 60228 Class 2)." if metric else "(ASTM B8 Class B)."),
+        f"Lay (stranding) factor {LAY_FACTOR_STRANDED} on ρ/A (common practice).",
+        f"Three phase conductors in trefoil; {geometry}. A flat formation has "
+        "GMD = 1.26 × spacing.",
+        "Temperature is the conductor temperature; resistance is linear in temperature with "
+        "the stated α.",
+    ]
+    if raceway == "steel":
+        result.assumptions.append(
+            f"Steel conduit: X × {STEEL_CONDUIT_X_FACTOR} (NEC Chapter 9 Table 9 steel vs PVC "
+            f"columns, from memory) and (y_s + y_p) × {STEEL_CONDUIT_AC_FACTOR} (IEC 60287-1-1 "
+            "pipe-type cables, from memory).")
+    if raceway == "aluminum":
+        result.assumptions.append(
+            "Aluminium conduit is non-magnetic: treated as PVC. NEC Table 9 lists slightly "
+            "higher AC resistance in aluminium conduit for large sizes (induced conduit "
+            "currents); that is not modelled.")
+    result.sources += list(SOURCES)
+    result.cautions += [CAUTION_AMPACITY, *cautions.COMMON]
+
+
+def _series(inputs):
+    """Chart: DC resistance against temperature, by the method chosen, marked at the input."""
+    size, material, temperature = inputs["size"], inputs["material"], inputs["temperature_c"]
+    low, high = min(CHART_TEMPERATURES_C[0], temperature), max(CHART_TEMPERATURES_C[1], temperature)
+    temperatures = [low + (high - low) * k / CHART_POINTS for k in range(CHART_POINTS + 1)]
+    curve = "table" if inputs["method"] == "table" else "physics"
+    return {
+        "title": f"Resistance of {size.label} {MATERIAL_NAMES[material]} against temperature",
+        "x": {"label": "Conductor temperature", "unit": "°C", "values": temperatures},
+        "y_axis": {"label": "DC resistance", "unit": "Ω/km"},
+        "y": [{"label": f"DC resistance ({curve})", "unit": "Ω/km",
+               "values": [conductors.dc_resistance(size, material, t_c, curve) * 1e3
+                          for t_c in temperatures]}],
+        "marks": [{"axis": "x", "value": temperature, "label": fq(temperature, "degC")}],
+    }
+
+
+def _view(inputs):
+    size, material = inputs["size"], inputs["material"]
+    metric = size.system == "mm2"
+    with conductor_fields(spacing="spacing_m"):
+        z = conductors.impedance(size, material, inputs["temperature_c"], inputs["frequency_hz"],
+                                 inputs["raceway"], inputs["spacing_m"], inputs["method"])
+    z_085 = conductors.effective_impedance(z.r_ac, z.x)
+
+    result = Result()
+    area_display = fq(size.area_m2, "m2")
+    if not metric:
+        area_display += f" ({size.area_m2 / units.CIRCULAR_MIL_M2:.0f} cmil)"
+    result.output("area", size.area_m2, area_display)
+    result.output("r_dc", z.r_dc, _per_length(z.r_dc, metric))
+    result.output("r_ac", z.r_ac, _per_length(z.r_ac, metric))
+    result.output("x", z.x, _per_length(z.x, metric))
+    if z.r_dc_table is not None:
+        result.output("r_dc_table", z.r_dc_table, _per_length(z.r_dc_table, metric))
+    result.output("z_085", z_085, _per_length(z_085, metric))
+    _steps(result, inputs, z, z_085, area_display, metric)
+    _checks(result, inputs, z, metric)
+    _describe(result, inputs, z, metric)
+    result.series = _series(inputs)
+    return result
+
+
+CALCULATOR = Calculator(
+    id="conductor",
+    title="Conductor resistance and reactance",
+    summary="DC and AC resistance, series reactance and effective impedance of one conductor "
+            "by size, material, temperature, frequency and raceway.",
+    group="Conductors",
+    inputs=(
+        Input("size", "Conductor size", "size", default="12 AWG",
+              region_defaults={"iec": "2.5 mm²"},
+              help="AWG, kcmil or mm², e.g. 12 AWG, 4/0, 250 kcmil, 2.5 mm²."),
+        _inputs.material(),
+        Input("temperature_c", "Conductor temperature", "quantity", unit="degC", default=75,
+              minimum=-40, maximum=250, region_defaults={"iec": 70},
+              help="Operating temperature of the conductor (75 °C NEC tables, 70 °C PVC)."),
+        _inputs.frequency(minimum=0, help="0 Hz means DC."),
+        Input("raceway", "Raceway", "choice", default="pvc", choices=conductors.RACEWAYS,
+              help="Steel conduit raises reactance and AC resistance."),
+        Input("spacing_m", "Conductor spacing", "quantity", unit="m", optional=True, minimum=0,
+              min_exclusive=True, maximum=10,
+              help="Centre-to-centre spacing in trefoil; blank means touching conductors."),
+        Input("method", "Resistance method", "choice", default="physics",
+              choices=conductors.METHODS,
+              help="Physics from resistivity, or the published table (NEC Table 8, IEC 60228)."),
+    ),
+    outputs=(
+        Output("area", "Cross-section", "m²"),
+        Output("r_dc", "DC resistance", "Ω/m"),
+        Output("r_ac", "AC resistance", "Ω/m"),
+        Output("x", "Series reactance", "Ω/m"),
+        Output("r_dc_table", "DC resistance, published table", "Ω/m"),
+        Output("z_085", f"Effective impedance at {POWER_FACTOR_NEC:g} pf", "Ω/m"),
+    ),
+    compute=_view,
+)
