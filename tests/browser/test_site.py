@@ -176,6 +176,65 @@ def test_engine_failure_is_shown(context, site):
     assert page.get_attribute("[data-calculator]", "data-state") == "error"
 
 
+# The page's own engine module, resolved as fluxbook.js resolves "./engine.js": the same URL, so
+# the same module instance and the same worker.
+SCRIPT_SRC = "document.querySelector('script[type=module][src*=\"fluxbook.js\"]').src"
+ENGINE_MODULE = f"new URL('engine.js', {SCRIPT_SRC}).href"
+
+
+def test_worker_death_after_ready_rejects_pending_runs_and_shows_it(context, site):
+    """Issue 10: a worker that dies after it was ready must not leave a run waiting for ever."""
+    page = context.new_page()
+    page.goto(site + PAGE)
+    wait_done(page)
+    outcome = page.evaluate(f"""async () => {{
+        const {{ engine }} = await import({ENGINE_MODULE});
+        const running = engine();
+        const pending = running.run("transformer-currents", {{}})
+            .then(() => "answered", (error) => "rejected: " + error.message);
+        // Let the run be posted, then end the worker the way an uncaught error does.
+        await Promise.resolve(); await Promise.resolve();
+        running.worker.dispatchEvent(new ErrorEvent("error", {{ message: "simulated crash" }}));
+        const later = await running.run("transformer-currents", {{}})
+            .then(() => "answered", (error) => "rejected: " + error.message);
+        return [await pending, later];
+    }}""")
+    assert outcome == ["rejected: simulated crash", "rejected: simulated crash"]
+    root = page.locator("[data-calculator]")
+    expect(root).to_have_attribute("data-engine", "failed")
+    assert "stopped (simulated crash)" in page.text_content(".fb-engine__text")
+    page.fill('[name="kva"]', "150 kVA")  # a new input after the death: an error, not a hang
+    expect(root).to_have_attribute("data-state", "error")
+    expect(page.locator(".fb-general-msg")).to_contain_text("could not run")
+
+
+def test_a_run_sent_before_boot_waits_for_the_boot(context, site):
+    """Issue 10: the worker answers a run that reaches it before its boot message."""
+    page = context.new_page()
+    page.goto(site + PAGE)
+    wait_done(page)
+    reply = page.evaluate("""async () => {
+        const script = document.querySelector('script[type=module][src*="fluxbook.js"]').src;
+        const worker = new Worker(new URL("calc-worker.js", script), { type: "module" });
+        const answered = new Promise((resolve) => worker.addEventListener("message", (event) => {
+            if (event.data.type === "reply") resolve(event.data);
+        }));
+        worker.postMessage({ type: "run", id: 7, calculator: "transformer-currents",
+                             inputs: { kva: "75 kVA", secondary_v: "208 V" } });
+        const meta = (name) => new URL(document.querySelector(`meta[name="${name}"]`).content,
+                                       document.baseURI).href;
+        worker.postMessage({ type: "boot", indexURL: meta("fluxbook-pyodide"),
+                             calcZipURL: meta("fluxbook-calc-zip") });
+        const reply = await answered;
+        worker.terminate();
+        return reply;
+    }""")
+    assert reply["id"] == 7 and "error" not in reply, reply
+    assert reply["result"]["ok"] is True
+    # 75 kVA / (√3 × 208 V) = 208.2 A, computed
+    assert reply["result"]["outputs"]["secondary_a"]["value"] == pytest.approx(208.18, rel=1e-4)
+
+
 def test_phone_width_has_no_sideways_scroll(context, site):
     page = context.new_page()
     page.goto(site + PAGE)

@@ -4,7 +4,14 @@ import * as messages from "./messages.js";
 
 const CALC_DIR = "/home/pyodide/fluxbook";
 let runJson = null;
-let booted = null; // the one ready promise
+let started = false;
+// The one ready promise, made at load: a run that arrives before the boot message waits for the
+// boot instead of failing.
+let bootDone;
+let bootFailed;
+const booted = new Promise((resolve, reject) => { bootDone = resolve; bootFailed = reject; });
+booted.catch(() => {}); // each run reports the failure itself
+let fatal = null; // set when the runtime can no longer be used
 
 // Offline fallback (Firefox has been reported to let a worker's fetch bypass the service
 // worker when offline): if the network fails, answer from the precache in Cache Storage.
@@ -38,10 +45,11 @@ async function start({ indexURL, calcZipURL }) {
 self.onmessage = async (event) => {
   const message = event.data;
   if (message.type === "boot") {
-    if (!booted) {
-      booted = start(message).catch((error) => {
-        self.postMessage(messages.stage("failed", String(error && error.message ? error.message : error)));
-        throw error;
+    if (!started) {
+      started = true;
+      start(message).then(bootDone, (error) => {
+        self.postMessage(messages.stage("failed", describe(error)));
+        bootFailed(error);
       });
     }
     return;
@@ -49,9 +57,25 @@ self.onmessage = async (event) => {
   if (message.type !== "run") return;
   try {
     await booted;
+    if (fatal) throw fatal;
     const text = runJson(String(message.calculator), JSON.stringify(message.inputs));
     self.postMessage(messages.reply(message.id, JSON.parse(text)));
   } catch (error) {
     self.postMessage(messages.failure(message.id, error));
+    if (!fatal && isFatal(error)) {
+      fatal = error;
+      self.postMessage(messages.stage("failed", `the Python runtime stopped: ${describe(error)}`));
+    }
   }
 };
+
+function describe(error) {
+  return String(error && error.message ? error.message : error);
+}
+
+// Pyodide marks itself unusable after a fatal error (out of memory, a WebAssembly trap): every
+// later call would fail the same way, so the page is told the engine is gone.
+function isFatal(error) {
+  return Boolean(error) && (error.name === "FatalPyodideError" ||
+    /fatally failed|Pyodide has suffered a fatal error/i.test(describe(error)));
+}

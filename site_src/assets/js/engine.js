@@ -10,20 +10,21 @@ class Engine {
     this.pending = new Map();
     this.listeners = new Set();
     this.state = { stage: "runtime", detail: "" };
+    this.failure = null; // set once the worker has failed: every later run is refused at once
     const indexURL = document.querySelector('meta[name="fluxbook-pyodide"]').content;
     const calcZipURL = document.querySelector('meta[name="fluxbook-calc-zip"]').content;
     this.worker = new Worker(new URL("./calc-worker.js", import.meta.url), { type: "module" });
     this.ready = new Promise((resolve, reject) => {
-      const timer = setTimeout(() => {
-        this.setStage("failed", "the engine did not start within 2 minutes");
-        reject(new Error("engine start timed out"));
-      }, BOOT_TIMEOUT_MS);
+      this.rejectReady = reject;
+      const timer = setTimeout(() => this.fail("the engine did not start within 2 minutes"),
+        BOOT_TIMEOUT_MS);
+      this.clearBootTimer = () => clearTimeout(timer);
       this.worker.addEventListener("message", (event) => {
         const message = event.data;
         if (message.type === "stage") {
+          if (message.stage === "failed") { this.fail(message.detail); return; }
           this.setStage(message.stage, message.detail);
           if (message.stage === "ready") { clearTimeout(timer); resolve(message.detail); }
-          if (message.stage === "failed") { clearTimeout(timer); reject(new Error(message.detail)); }
         } else if (message.type === "reply") {
           const waiter = this.pending.get(message.id);
           if (!waiter) return;
@@ -32,16 +33,30 @@ class Engine {
           else waiter.resolve(message.result);
         }
       });
+      // An uncaught error in the worker, before or after it was ready, ends it: say so.
       this.worker.addEventListener("error", (event) => {
-        clearTimeout(timer);
-        this.setStage("failed", event.message || "the worker could not start");
-        reject(new Error(event.message || "worker error"));
+        this.fail(event.message || "the worker stopped with an error");
+      });
+      this.worker.addEventListener("messageerror", () => {
+        this.fail("the worker sent a message the page could not read");
       });
     });
     this.ready.catch(() => {}); // failures are shown through the stage listeners
     // Absolute URLs: the worker resolves relative ones against its own location.
     this.worker.postMessage(messages.boot(new URL(indexURL, document.baseURI).href,
       new URL(calcZipURL, document.baseURI).href));
+  }
+
+  // The worker cannot answer any more (it failed to start, or died after it was ready): show
+  // the failure and reject every run still waiting, so no page waits for ever.
+  fail(detail) {
+    if (this.failure) return;
+    this.failure = new Error(detail);
+    this.clearBootTimer();
+    this.rejectReady(this.failure);
+    this.setStage("failed", detail);
+    for (const waiter of this.pending.values()) waiter.reject(this.failure);
+    this.pending.clear();
   }
 
   setStage(stage, detail) {
@@ -55,8 +70,10 @@ class Engine {
     return () => this.listeners.delete(listener);
   }
 
+  // A run asked for before the engine is ready waits for it; after a failure it is refused.
   async run(calculator, inputs) {
     await this.ready;
+    if (this.failure) throw this.failure;
     const id = this.nextId++;
     return new Promise((resolve, reject) => {
       this.pending.set(id, { resolve, reject });

@@ -18,6 +18,9 @@ function setState(root, state) {
 
 function engineText(stage, detail) {
   if (stage === "ready") return "Calculator engine ready";
+  if (stage === "failed" && engineWasReady) {
+    return `Calculator engine stopped (${detail}). Reload the page to start it again.`;
+  }
   if (stage === "failed") {
     return `Calculator engine failed to start (${detail}). Reload the page; if it keeps failing, ` +
       "open it once while online.";
@@ -105,13 +108,27 @@ function wire(root, roots) {
   root.querySelector('[data-action="print"]').addEventListener("click", () => window.print());
   const running = engine();
   root.fbOffline = offlineState;
-  const stop = running.onStage((state) => showEngine(root, state));
+  listenToEngine(running);
+  showEngine(root, running.state);
   running.ready.then(() => {
-    stop();
     showEngine(root, running.state);
     if (root.dataset.state === "starting") setState(root, "ready");
     compute(root, roots);
   }, () => {});
+}
+
+// One stage listener for the whole visit (it outlives instant navigation): it shows the engine's
+// state, including a failure after it was ready, on whichever calculators are showing.
+let engineListening = false;
+let engineWasReady = false;
+
+function listenToEngine(running) {
+  if (engineListening) return;
+  engineListening = true;
+  running.onStage((state) => {
+    if (state.stage === "ready") engineWasReady = true;
+    for (const root of currentRoots) if (root.fbWired) showEngine(root, state);
+  });
 }
 
 // Instant navigation replaces the page's elements but not this module: one offline listener
