@@ -97,8 +97,9 @@ def _field(item, prefix, value, datalist_id):
     else:
         control = _select_control(item, field_id, described, value)
     help_text = escape(item.help) if item.help else ""
+    group = f' data-group="{_attr(item.group)}"' if item.group else ""
     return (
-        f'<div class="fb-field" data-field="{_attr(item.name)}">'
+        f'<div class="fb-field" data-field="{_attr(item.name)}"{group}>'
         f'<label for="{field_id}">{escape(item.label)}{unit}</label>{control}'
         f'<p class="fb-field__help" id="{help_id}">{help_text}</p>'
         f'<p class="fb-field__msg" id="{msg_id}" role="alert" hidden></p></div>'
@@ -120,6 +121,50 @@ def _section(kind, title, open_=False):
         f'<summary>{escape(title)}</summary><{"ol" if kind == "steps" else "ul"} '
         f'class="fb-{kind}"></{"ol" if kind == "steps" else "ul"}></details>'
     )
+
+
+# --- jobs (issue 13): the "save to job" action and its form; jobs.js wires them ----------------
+
+SAVE_BUTTON = (
+    '<button type="button" class="fb-button" data-action="save" aria-expanded="false" '
+    'aria-controls="{prefix}-save">Save to job</button>'
+)
+
+
+def _save_form(prefix):
+    """The save form (hidden until the save action opens it) and the line that reports a save.
+
+    It sits outside `.fb-form`, so its fields are never read as calculator inputs.
+    """
+    def field(name, label, help_text, control):
+        return (
+            f'<div class="fb-save__field"><label for="{prefix}-{name}">{label}</label>{control}'
+            f'<p class="fb-save__help" id="{prefix}-{name}-help">{help_text}</p></div>'
+        )
+
+    common = 'autocomplete="off" spellcheck="false"'
+    return (
+        f'<form class="fb-save" id="{prefix}-save" hidden novalidate autocomplete="off">'
+        '<p class="fb-save__title">Save this calculation to a job on this device</p>'
+        + field("job_name", "Job", "An existing job’s name adds to that job; a new name starts one.",
+                f'<input id="{prefix}-job_name" name="job_name" type="text" maxlength="120" '
+                f'list="{prefix}-jobs" enterkeyhint="next" {common} '
+                f'aria-describedby="{prefix}-job_name-help"><datalist id="{prefix}-jobs"></datalist>')
+        + field("site", "Site", "Building, room or panel (kept with a new job).",
+                f'<input id="{prefix}-site" name="site" type="text" maxlength="200" '
+                f'enterkeyhint="next" {common} aria-describedby="{prefix}-site-help">')
+        + field("note", "Note on this calculation", "What it is for, in your own words (optional).",
+                f'<textarea id="{prefix}-note" name="note" rows="2" maxlength="1000" '
+                f'aria-describedby="{prefix}-note-help"></textarea>')
+        + '<div class="fb-save__buttons">'
+        '<button type="submit" class="fb-button" data-action="save-confirm">Save</button>'
+        '<button type="button" class="fb-button fb-button--quiet" data-action="save-cancel">Cancel'
+        "</button></div></form>"
+        '<p class="fb-save__msg" role="status" aria-live="polite" hidden></p>'
+    )
+
+
+# --- end jobs --------------------------------------------------------------------------------
 
 
 def render_calculator(calculator_id, config, preset=None, index=0):
@@ -181,6 +226,8 @@ def render_calculator(calculator_id, config, preset=None, index=0):
         '<div class="fb-actions">'
         '<button type="button" class="fb-button" data-action="copy-link">Copy link to this calculation</button>'
         '<button type="button" class="fb-button" data-action="print">Print or save as PDF</button>'
-        '<span class="fb-actions__note" role="status" aria-live="polite"></span></div>'
-        "</section>"
+        + SAVE_BUTTON.format(prefix=prefix)  # jobs (issue 13)
+        + '<span class="fb-actions__note" role="status" aria-live="polite"></span></div>'
+        + _save_form(prefix)  # jobs (issue 13)
+        + "</section>"
     )

@@ -24,7 +24,8 @@ REGION_VOLTAGES = {
 
 # Voltage-drop recommendations [%] when the team sets none. North America: NEC 210.19(A)
 # Informational Note No. 4 (3 % branch, 5 % feeder + branch, not enforceable). IEC: IEC 60364-5-52
-# Annex G, Table G.52.1, installation type A (3 % lighting, 5 % other uses).
+# Annex G, Table G.52.1, installation type A (3 % lighting, 5 % other uses; read, as reproduced
+# at scribd.com/document/599637287).
 REGION_DROP_LIMITS = {
     "na": {"branch_pct": 3.0, "total_pct": 5.0},
     "iec": {"lighting_pct": 3.0, "other_pct": 5.0},

@@ -9,7 +9,8 @@ import math
 
 from calc import __version__, units
 from calc.calculators import CALCULATORS
-from calc.errors import CalcError, InputError, InputErrors, UnitError
+from calc.errors import CalcError, InputError, InputErrors, UnitError, shorten
+from calc.spec import REGIONS
 
 REGISTRY = {calculator.id: calculator for calculator in CALCULATORS}
 
@@ -32,7 +33,7 @@ def get(calculator_id):
     except (KeyError, TypeError):
         known = ", ".join(sorted(REGISTRY))
         raise InputError(
-            None, calculator_id, f"unknown calculator {calculator_id!r}; known: {known}"
+            None, calculator_id, f"unknown calculator {shorten(calculator_id)!r}; known: {known}"
         ) from None
 
 
@@ -82,14 +83,38 @@ def _describe_input(item):
         entry["suggest"] = item.suggest
     if item.advanced:
         entry["advanced"] = True
+    if item.group:
+        entry["group"] = item.group
     return entry
 
 
-def validate(calculator, inputs):
+class Inputs(dict):
+    """Validated inputs (name -> SI value) as a calculator's `compute` receives them, with
+    `typed_units`: for each quantity given as text, the unit symbol the user typed ("hp",
+    "ft"), so a view can tell a motor's "10 hp" from an electrical "7.5 kW"."""
+
+    def __init__(self, *args, typed_units=None, **kwargs):
+        super().__init__(*args, **kwargs)
+        self.typed_units = dict(typed_units or {})
+
+
+def default_for(item, region=None):
+    """The value an omitted input takes: the region's default where it has one, else `default`
+    (North American practice)."""
+    if region is not None:
+        return item.region_defaults.get(region, item.default)
+    return item.default
+
+
+def validate(calculator, inputs, region=None):
     """Check and convert raw inputs (numbers or text) into the values `compute` receives.
 
+    Omitted inputs take the default of `region` ("na" or "iec"; None is North American).
     Raises InputErrors listing every wrong field, including names the calculator does not have.
     """
+    if region is not None and region not in REGIONS:
+        raise InputErrors([InputError(None, region, f"region {region!r} is not one of: "
+                                      + ", ".join(REGIONS))])
     if not isinstance(inputs, dict):
         raise InputErrors([InputError(None, inputs, "inputs must be an object of name: value")])
     errors = []
@@ -98,15 +123,26 @@ def validate(calculator, inputs):
         if name not in names:
             allowed = ", ".join(item.name for item in calculator.inputs)
             errors.append(
-                InputError(name, inputs[name], f"unknown input {name!r}; inputs are: {allowed}")
+                InputError(name, inputs[name],
+                           f"unknown input {shorten(name)!r}; inputs are: {allowed}")
             )
-    values = {}
+    values = Inputs()
+    given_groups = {item.group for item in calculator.inputs
+                    if item.group and not _is_blank(inputs.get(item.name))}
     for item in calculator.inputs:
-        raw = inputs.get(item.name, item.default)
+        if item.name in inputs:
+            raw = inputs[item.name]
+        elif item.group in given_groups:
+            raw = None  # an alternative of this input was given: no default competes with it
+        else:
+            raw = default_for(item, region)
         try:
             values[item.name] = _convert(item, raw)
         except InputError as error:
             errors.append(error)
+            continue
+        if item.kind == "quantity" and values[item.name] is not None:
+            values.typed_units[item.name] = units.typed_unit(raw, item.unit)
     if errors:
         raise InputErrors(errors)
     return values
@@ -116,7 +152,14 @@ def _is_blank(raw):
     return raw is None or (isinstance(raw, str) and not raw.strip())
 
 
+# Longest text any input takes; longer text is refused before it is read, and never echoed whole.
+MAX_TEXT_CHARS = 200
+
+
 def _convert(item, raw):
+    if isinstance(raw, str) and len(raw) > MAX_TEXT_CHARS:
+        raise InputError(item.name, raw, f"{len(raw)} characters is too long for "
+                         f"{item.label} (at most {MAX_TEXT_CHARS}); {_allowed(item)}")
     if _is_blank(raw):
         if item.optional:
             return None
@@ -194,8 +237,10 @@ def _limit(item, which):
     return f"{text} {item.unit}".strip()  # 1000000 kVA, never 1e+06 kVA
 
 
-def run(calculator_id, inputs):
+def run(calculator_id, inputs, region=None):
     """Run a calculator on raw inputs and return the contract's result or error dict.
+
+    Omitted inputs take the defaults of `region` ("na" or "iec"; None: North American).
 
     Never raises for bad input: errors come back as {"ok": false, "errors": [...]} with the
     field, the value received and what is allowed.
@@ -205,7 +250,7 @@ def run(calculator_id, inputs):
     except InputError as error:
         return _error_result(calculator_id, [error])
     try:
-        values = validate(calculator, inputs)
+        values = validate(calculator, inputs, region)
         result = calculator.compute(values)
         return _result_dict(calculator, result)
     except InputErrors as errors:

@@ -7,6 +7,26 @@ view attaches the field with `field_error` (or by catching and raising InputErro
 import contextlib
 
 
+# An error echoes at most this many characters of what it received: a pasted page of text must
+# not come back whole in a message or widen the page.
+ECHO_CHARS = 40
+
+
+def shorten(value, limit=ECHO_CHARS):
+    """`value` for echoing in a message: text longer than `limit` is cut, with its length said.
+
+    Examples
+    --------
+    >>> shorten("x" * 50000)
+    'xxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxxx… (50000 characters)'
+    >>> shorten("150 ft")
+    '150 ft'
+    """
+    if isinstance(value, str) and len(value) > limit:
+        return f"{value[:limit]}… ({len(value)} characters)"
+    return value
+
+
 class CalcError(ValueError):
     """Base of every error calc/ raises on purpose (a ValueError, as pint's errors are)."""
 
@@ -45,7 +65,7 @@ class InputError(CalcError):
             value = str(value)  # echo what was sent, but JSON output never carries NaN or infinity
         elif not isinstance(value, (str, int, float, bool, type(None))):
             value = str(value)
-        return {"field": self.field, "value": value, "message": self.message}
+        return {"field": shorten(self.field), "value": shorten(value), "message": self.message}
 
 
 class InputErrors(CalcError):

@@ -29,9 +29,9 @@ CODE_LETTERS = {
 
 # NEC Table 430.250: full-load current [A] of three-phase induction motors (squirrel cage and
 # wound rotor) "typical for motors running at speeds usual for belted motors and motors with
-# normal torque characteristics", by horsepower and rated motor voltage. From memory (the
-# values are the same in the 2008-2023 editions); they agree with a reproduction of the 2008
-# table read while writing. None: no entry.
+# normal torque characteristics", by horsepower and rated motor voltage. Read, as reproduced
+# (NEC 2017, repository mjk83093/sil NEC2017_Chapter_4.md; NEC 2008 at scribd.com/doc/250218196):
+# every cell agrees with both; the same to 2023 from memory. None: no entry.
 NEC_430_250_VOLTS = (115.0, 200.0, 208.0, 230.0, 460.0, 575.0, 2300.0)
 NEC_430_250 = {
     0.5: (4.4, 2.5, 2.4, 2.2, 1.1, 0.9, None),
@@ -64,7 +64,8 @@ NEC_430_250 = {
 }
 
 # NEC Table 430.248: full-load current [A] of single-phase AC motors, by horsepower and rated
-# motor voltage — from memory (2008-2023 editions).
+# motor voltage — read, as reproduced (NEC 2017, mjk83093/sil NEC2017_Chapter_4.md); the same
+# 2008-2023 from memory.
 NEC_430_248_VOLTS = (115.0, 200.0, 208.0, 230.0)
 NEC_430_248 = {
     1 / 6: (4.4, 2.5, 2.4, 2.2), 0.25: (5.8, 3.3, 3.2, 2.9), 1 / 3: (7.2, 4.1, 4.0, 3.6),
@@ -74,7 +75,8 @@ NEC_430_248 = {
 }
 
 # The tables' headings let their currents serve system voltages of 110-120 and 220-240 V, and
-# for three-phase also 440-480 and 550-600 V (from memory): (lowest, highest, table column).
+# for three-phase also 440-480 and 550-600 V (read, as reproduced in the same NEC 2017 text):
+# (lowest, highest, table column).
 NEC_SYSTEM_RANGES = {
     1: ((110.0, 120.0, 115.0), (220.0, 240.0, 230.0)),
     3: ((110.0, 120.0, 115.0), (220.0, 240.0, 230.0), (440.0, 480.0, 460.0),
@@ -88,6 +90,16 @@ NEC_TABLES = {1: (NEC_430_248_VOLTS, NEC_430_248, "430.248"),
 RUNNING_VOLTAGE_TOLERANCE_PCT = 10.0
 RUNNING_FREQUENCY_TOLERANCE_PCT = 5.0
 RUNNING_COMBINED_TOLERANCE_PCT = 10.0
+
+# Motor sizes by rated voltage (the plausibility of a size at a voltage). The NEC full-load
+# tables list three-phase motors at 115 V up to 2 hp, at 200-230 V up to 200 hp, at 460-575 V up
+# to 500 hp and at 2300 V from 60 hp (read off NEC_430_250 above), single-phase motors up to
+# 10 hp (NEC_430_248). IEC low-voltage motors are made to about 1000 kW at 400-690 V, and
+# medium-voltage motors run to about 13.8 kV (NEMA MG 1 voltage ratings by size: common practice).
+MOTOR_VOLTAGE_RANGE_V = (100.0, 13800.0)
+LOW_VOLTAGE_MOTOR_MAX_W = 1000e3  # IEC low-voltage motors, about 1000 kW (common practice)
+_SIZE_BANDS = ((130.0, 115.0), (250.0, 230.0), (1000.0, 575.0))  # (highest V, NEC column V)
+
 
 # ==== starting ===============================================================================
 
@@ -462,7 +474,8 @@ def nec_table_current(power, voltage, phases):
 
     References
     ----------
-    NEC Tables 430.248 and 430.250 (2008-2023 editions) — from memory.
+    NEC Tables 430.248 and 430.250 and their headings — read, as reproduced (NEC 2017,
+    repository mjk83093/sil NEC2017_Chapter_4.md; 430.250 also NEC 2008, scribd.com/doc/250218196).
 
     Examples
     --------
@@ -489,6 +502,59 @@ def nec_table_current(power, voltage, phases):
     if current is None:
         return None, None, f"Table {number} has no {_hp_text(hp)} hp entry at {column:g} V"
     return current, column, number
+
+
+def usual_power_range(voltage, phases):
+    """The rated outputs induction motors are made in at a rated voltage.
+
+    Parameters
+    ----------
+    voltage : float
+        Rated voltage [V]; line-to-line for three-phase.
+    phases : int
+        1 or 3.
+
+    Returns
+    -------
+    (float, float or None)
+        The smallest and largest usual output [W]; None: no upper figure. (0, 0) where no motors
+        of that kind are made (single-phase above 1 kV, anything outside MOTOR_VOLTAGE_RANGE_V).
+
+    Notes
+    -----
+    Single-phase: up to the largest NEC Table 430.248 size (10 hp), at most 1 kV. Three-phase up
+    to 1 kV: up to the largest NEC Table 430.250 size of the band's column (115 V: 2 hp;
+    200-250 V: 200 hp), 460-690 V up to the larger of the table's 500 hp and 1000 kW of IEC
+    practice. Above 1 kV: from the smallest size of the 2300 V column (60 hp), no upper figure.
+
+    References
+    ----------
+    NEC Tables 430.248 and 430.250 (read, as reproduced: NEC 2017, repository mjk83093/sil
+    NEC2017_Chapter_4.md; NEC 2008 at scribd.com/doc/250218196); NEMA MG 1 voltage ratings by
+    size and IEC low-voltage motor ranges — common practice.
+
+    Examples
+    --------
+    >>> [round(horsepower(p)) for p in usual_power_range(208.0, 3)]
+    [0, 200]
+    >>> round(horsepower(usual_power_range(4160.0, 3)[0]))
+    60
+    """
+    low_v, high_v = MOTOR_VOLTAGE_RANGE_V
+    if not low_v <= voltage <= high_v or (phases == 1 and voltage > _SIZE_BANDS[-1][0]):
+        return 0.0, 0.0
+    hp_w = float(units.HORSEPOWER_W)
+    if phases == 1:
+        return 0.0, max(NEC_430_248) * hp_w
+    column = next((c for top, c in _SIZE_BANDS if voltage <= top), None)
+    if column is None:  # medium voltage: from the smallest size of the 2300 V column
+        index = NEC_430_250_VOLTS.index(2300.0)
+        return min(hp for hp, row in NEC_430_250.items() if row[index] is not None) * hp_w, None
+    index = NEC_430_250_VOLTS.index(column)
+    largest = max(hp for hp, row in NEC_430_250.items() if row[index] is not None) * hp_w
+    if column == _SIZE_BANDS[-1][1]:
+        largest = max(largest, LOW_VOLTAGE_MOTOR_MAX_W)
+    return 0.0, largest
 
 
 def _hp_text(hp):

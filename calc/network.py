@@ -413,8 +413,9 @@ def cable_ohms(path, cable):
 
     References
     ----------
-    NEC Chapter 9 Table 9 (AC resistance and reactance, 600 V cables in conduit) and IEC
-    60287-1-1 clause 2.1 (AC resistance) — as calc.conductors cites them.
+    NEC Chapter 9 Table 9 (AC resistance and reactance, 600 V cables in conduit; read, as
+    reproduced) and IEC 60287-1-1 clause 2.1 (AC resistance; from memory) — as calc.conductors
+    cites them.
 
     Examples
     --------
@@ -632,7 +633,8 @@ def peak_factor(x_r):
 
     References
     ----------
-    IEC 60909-0:2016, clause 4.3.1.1 — from memory.
+    IEC 60909-0:2016, clause 4.3.1.1: the formula read, as reproduced in pandapower's
+    documentation (doc/shortcircuit/correction.rst and ip.rst); the clause number from memory.
 
     Examples
     --------
@@ -675,7 +677,8 @@ def transformer_correction(transformer, voltage_factor):
 
     References
     ----------
-    IEC 60909-0:2016, clause 6.3.3 — from memory.
+    IEC 60909-0:2016, clause 6.3.3: the formula read, as reproduced in pandapower's
+    documentation (doc/shortcircuit/branch_elements.rst); the clause number from memory.
 
     Examples
     --------
@@ -719,8 +722,9 @@ def faults(path, voltage_factor=1.0, iec60909=False, source_voltage_factor=None)
 
     References
     ----------
-    IEC 60909-0:2016: voltage factor c (Table 1), feeder Z_Q (§6.2), K_T (§6.3.3), κ (§4.3.1.1),
-    line-to-earth I"k1 (§4.2.1.3) — from memory. IEEE Std 141-1993 (Red Book) ch. 4: I_sc =
+    IEC 60909-0:2016: voltage factor c (Table 1), K_T (§6.3.3) and κ (§4.3.1.1) read, as
+    reproduced in pandapower's documentation (doc/shortcircuit/); feeder Z_Q (§6.2), line-to-earth
+    I"k1 (§4.2.1.3) and the clause numbers from memory. IEEE Std 141-1993 (Red Book) ch. 4: I_sc =
     I_FL × 100 / %Z at a transformer on an infinite source (read). Checked against pandapower's
     IEC 60909 module (tests/test_network.py).
 

@@ -18,8 +18,9 @@ TWO_PI = 2.0 * math.pi
 SIX_PULSE_HARMONICS = (5, 7, 11, 13)
 
 # Detuning factors offered by reactor makers, p = X_L/X_C at the fundamental: 7 % tunes to
-# n = 1/√p = 3.78 × f1 (189 Hz at 50 Hz), below the 5th. The relation n = 1/√p: textbook (read
-# for 7 % → 189 Hz at 50 Hz); the tuning orders computed from it.
+# n = 1/√p = 3.78 × f1 (189 Hz at 50 Hz), below the 5th. The relation n = 1/√p: J. C. Das, Power
+# System Harmonics and Filter Design, 1st ed., Springer, 2015 (from memory); 7 % → 189 Hz at
+# 50 Hz read, as worked at studylib.net document 27030577; the tuning orders computed from it.
 DETUNING_FACTORS = (0.05, 0.0567, 0.06, 0.07, 0.08, 0.14)
 
 # IEEE Std 18-2012: capacitors may operate continuously up to 110 % of rated rms voltage,
@@ -90,7 +91,9 @@ def capacitor_reactive_power(power, pf_now, pf_target):
     References
     ----------
     IEEE Std 141-1993 (Red Book), ch. 8, the table of kW multipliers for power-factor
-    correction — from memory; the formula is the textbook one (read).
+    correction — from memory; the formula also in C. K. Alexander and M. N. O. Sadiku,
+    Fundamentals of Electric Circuits, 5th ed., section 11.8 (power factor correction) — from
+    memory.
 
     Examples
     --------
@@ -100,19 +103,36 @@ def capacitor_reactive_power(power, pf_now, pf_target):
     return power * (tan_phi(pf_now) - tan_phi(pf_target))
 
 
-def capacitance_per_phase(reactive_power, voltage, frequency, bank_connection):
+# Where the detuned-bank relations were read: a worked example (400 V, 6 %, 50 kvar → 425.5 V and
+# 53 kvar at the capacitor) at erbar.id/2022/11/17/efek-pemasangan-detuned-reactor-pada-kapasitor;
+# the derivation X_C = V²/((1 − p) Q), Q_rated = V_r² (1 − p) Q / V² in "Design of detuned
+# capacitor stage", pt.scribd.com/document/362273248. The textbook treatment: J. C. Das, Power
+# System Harmonics and Filter Design, 1st ed., Springer, 2015, the chapters on passive filters
+# (from memory; section not checked).
+DETUNED_BANK_READ = (
+    "read, as worked at erbar.id (“Efek pemasangan detuned reactor pada kapasitor”, 2022) and "
+    "derived in “Design of detuned capacitor stage” (scribd.com document 362273248); J. C. Das, "
+    "Power System Harmonics and Filter Design, 1st ed., Springer, 2015, passive-filter chapters "
+    "— from memory"
+)
+
+
+def capacitance_per_phase(reactive_power, voltage, frequency, bank_connection, detuning=0.0):
     """Capacitance of each of the bank's capacitors.
 
     Parameters
     ----------
     reactive_power : float
-        Bank rating, all phases [var].
+        The bank's output at the system voltage, all phases [var].
     voltage : float
         System voltage [V], line-to-line for three-phase.
     frequency : float
         Supply frequency [Hz].
     bank_connection : str
         "wye" (three capacitors line-to-neutral), "delta" (three line-to-line) or "single".
+    detuning : float
+        p = X_L/X_C of a series (detuning) reactor in each phase [-], in [0, 1); 0 for a plain
+        bank.
 
     Returns
     -------
@@ -126,23 +146,70 @@ def capacitance_per_phase(reactive_power, voltage, frequency, bank_connection):
 
     Notes
     -----
-    Wye: C = Q/(2πf V²) (each capacitor takes Q/3 at V/√3); delta: C = Q/(3 × 2πf V²);
-    single-phase: C = Q/(2πf V²).
+    Plain bank: wye C = Q/(2πf V²) (each capacitor takes Q/3 at V/√3); delta C = Q/(3 × 2πf V²);
+    single-phase C = Q/(2πf V²). With a reactor the branch is X_C − X_L = (1 − p) X_C, so to
+    deliver Q at V the capacitors need X_C = V²/((1 − p) Q): C is (1 − p) times the plain value.
 
     References
     ----------
-    Textbook relation Q = 2πf C V², computed; IEEE Std 141-1993 (Red Book), ch. 8 — from memory.
+    Q = 2πf C V²: IEEE Std 141-1993 (Red Book), ch. 8 — from memory. The detuned branch: see
+    DETUNED_BANK_READ.
 
     Examples
     --------
     >>> round(capacitance_per_phase(10e3, 240.0, 60.0, "single") * 1e6, 1)
     460.5
+    >>> round(capacitance_per_phase(10e3, 240.0, 60.0, "single", 0.07) * 1e6, 1)
+    428.3
     """
     if bank_connection not in CONNECTIONS:
         raise ParameterError("bank_connection", bank_connection,
                              f"{bank_connection!r} is not one of {', '.join(CONNECTIONS)}")
     per_capacitor = reactive_power / 3.0 if bank_connection == "delta" else reactive_power
-    return per_capacitor / (TWO_PI * frequency * voltage * voltage)
+    return (1.0 - detuning) * per_capacitor / (TWO_PI * frequency * voltage * voltage)
+
+
+def capacitor_rated_reactive_power(reactive_power, voltage, detuning, nameplate_voltage=None):
+    """Nameplate reactive power of a bank's capacitors, at their own rated voltage.
+
+    Parameters
+    ----------
+    reactive_power, voltage : float
+        The bank's output at the system voltage, all phases [var]; that voltage [V],
+        line-to-line for three-phase.
+    detuning : float
+        p = X_L/X_C of the series reactor [-], in [0, 1); 0 for a plain bank.
+    nameplate_voltage : float or None
+        The capacitors' rated voltage [V], same basis as `voltage`; None: the voltage they run
+        at, U/(1 − p).
+
+    Returns
+    -------
+    float
+        Q_rated [var], all phases: what the capacitors' nameplate says at nameplate_voltage.
+
+    Notes
+    -----
+    The capacitors' reactance is X_C = V²/((1 − p) Q) (capacitance_per_phase), so at their
+    rated voltage U_r they are rated Q_r = U_r²/X_C = Q (1 − p) (U_r/V)²; at U_C = V/(1 − p)
+    this is Q/(1 − p). The reactor takes the difference, p Q/(1 − p).
+
+    References
+    ----------
+    DETUNED_BANK_READ: the 400 V, 6 %, 50 kvar example gives 53 kvar at 425.5 V; 80 kvar, 525 V
+    capacitors with a 7 % reactor deliver 49.9 kvar on 400 V, 50 Hz (read, as worked at
+    studylib.net document 27030577, "Detuned reactor calculation").
+
+    Examples
+    --------
+    >>> round(capacitor_rated_reactive_power(50e3, 400.0, 0.06) / 1e3, 2)
+    53.19
+    >>> round(capacitor_rated_reactive_power(49.9e3, 400.0, 0.07, 525.0) / 1e3, 1)
+    79.9
+    """
+    if nameplate_voltage is None:
+        return reactive_power / (1.0 - detuning)
+    return reactive_power * (1.0 - detuning) * (nameplate_voltage / voltage) ** 2
 
 
 def bus_short_circuit_power(transformer_rating=None, transformer_impedance_pct=None,
@@ -171,9 +238,9 @@ def bus_short_circuit_power(transformer_rating=None, transformer_impedance_pct=N
 
     References
     ----------
-    S_sc = 100 S_T/Z% on an infinite source: the IEEE Std 141 (Red Book) method, textbook
-    (read). The finite source: the IAEI Magazine article transformers.source_impedance_pct
-    cites (read).
+    S_sc = 100 S_T/Z% on an infinite source: IEEE Std 141-1993 (Red Book), ch. 4 — from memory
+    (the relation read, as quoted in the IAEI article below). The finite source: the IAEI
+    Magazine article transformers.source_impedance_pct cites (read).
 
     Examples
     --------
@@ -243,7 +310,9 @@ def tuning_order(detuning):
 
     References
     ----------
-    Textbook (read for 7 % → 189 Hz at 50 Hz); the orders for other p computed.
+    n = 1/√p: J. C. Das, Power System Harmonics and Filter Design, 1st ed., Springer, 2015,
+    passive-filter chapters — from memory; 7 % → 189 Hz at 50 Hz read, as worked at
+    studylib.net document 27030577, "Detuned reactor calculation". Other orders computed.
 
     Examples
     --------
@@ -274,7 +343,7 @@ def capacitor_voltage(voltage, detuning):
 
     References
     ----------
-    Textbook (read: 6 % on 400 V → 425.5 V).
+    DETUNED_BANK_READ (6 % on 400 V → 425.5 V, read as worked at erbar.id).
 
     Examples
     --------

@@ -286,15 +286,12 @@ def switching_transient(circuit, resistance, source_voltage, time, inductance=No
 
     Parameters
     ----------
-    circuit : str
-        "rl", "rc" or "rlc" (series).
-    resistance, source_voltage, time : float
-        Series resistance [Ω], > 0; DC source [V]; time after switching [s], ≥ 0.
-    inductance, capacitance : float or None
-        L [H] (rl, rlc) and C [F] (rc, rlc), else None.
-    position : str
-        "1": the source is switched onto a circuit at rest (step response); "2": after a long
-        time on it, the source is replaced by a short (natural response).
+    circuit, position : str
+        "rl", "rc" or "rlc" (series); "1": the source switched onto a circuit at rest (step
+        response), "2": after a long time on it, the source replaced by a short (natural).
+    resistance, source_voltage, time, inductance, capacitance : float or None
+        R [Ω], > 0; DC source [V]; time after switching [s], ≥ 0; L [H] (rl, rlc) and C [F]
+        (rc, rlc), else None.
 
     Returns
     -------
@@ -385,14 +382,10 @@ def response_peak(circuit, resistance, source_voltage, inductance=None, capacita
 
     Parameters
     ----------
-    circuit : str
-        "rl", "rc" or "rlc" (series).
-    resistance, source_voltage : float
-        Series resistance R [Ω], > 0, and DC source [V].
-    inductance, capacitance : float or None
-        L [H] (rl, rlc) and C [F] (rc, rlc), else None.
-    position : str
-        "1" (step) or "2" (release), as switching_transient.
+    circuit, position : str
+        "rl", "rc" or "rlc" (series); "1" (step) or "2" (release), as switching_transient.
+    resistance, source_voltage, inductance, capacitance : float or None
+        R [Ω], > 0; DC source [V]; L [H] (rl, rlc) and C [F] (rc, rlc), else None.
 
     Returns
     -------
@@ -432,14 +425,10 @@ def peak_current(circuit, resistance, source_voltage, inductance=None, capacitan
 
     Parameters
     ----------
-    circuit : str
-        "rl", "rc" or "rlc" (series).
-    resistance, source_voltage : float
-        Series resistance R [Ω], > 0, and DC source [V].
-    inductance, capacitance : float or None
-        L [H] (rl, rlc) and C [F] (rc, rlc), else None.
-    position : str
-        "1" (step) or "2" (release), as switching_transient.
+    circuit, position : str
+        "rl", "rc" or "rlc" (series); "1" (step) or "2" (release), as switching_transient.
+    resistance, source_voltage, inductance, capacitance : float or None
+        R [Ω], > 0; DC source [V]; L [H] (rl, rlc) and C [F] (rc, rlc), else None.
 
     Returns
     -------
@@ -535,22 +524,24 @@ def resonant_frequency(inductance, capacitance):
     return 1.0 / (TWO_PI * math.sqrt(inductance) * math.sqrt(capacitance))
 
 
-def capacitance_for_resonance(frequency, inductance):
-    """The capacitance that resonates with an inductance at a frequency.
+def resonant_partner(frequency, partner):
+    """The C that resonates with an L at a frequency, or the L with a C (L and C are symmetric).
 
     Parameters
     ----------
-    frequency, inductance : float
-        Wanted resonant frequency [Hz] and L [H], > 0.
+    frequency : float
+        Wanted resonant frequency [Hz], > 0.
+    partner : float
+        The L [H] (to find C) or the C [F] (to find L) already in the circuit, > 0.
 
     Returns
     -------
     float
-        C [F].
+        C [F] for an inductance, L [H] for a capacitance.
 
     Notes
     -----
-    C = 1 / ((2πf)² L), from f = 1 / (2π √(LC)).
+    C = 1 / ((2πf)² L) and L = 1 / ((2πf)² C), from f = 1 / (2π √(LC)).
 
     References
     ----------
@@ -558,39 +549,54 @@ def capacitance_for_resonance(frequency, inductance):
 
     Examples
     --------
-    >>> round(capacitance_for_resonance(50000 / TWO_PI, 1e-3) * 1e6, 6)
-    0.4
+    >>> [round(resonant_partner(f, x), 8) for f, x in ((50000 / TWO_PI, 1e-3), (1e3, 1e-6))]
+    [4e-07, 0.0253303]
     """
-    return 1.0 / ((TWO_PI * frequency) ** 2 * inductance)
+    return 1.0 / ((TWO_PI * frequency) ** 2 * partner)
 
 
-def inductance_for_resonance(frequency, capacitance):
-    """The inductance that resonates with a capacitance at a frequency.
+# IEC 60063:2015 preferred values, one decade: E6 (±20 %) and E12 (±10 %). Read, as reproduced in
+# en.wikipedia.org/wiki/E_series_of_preferred_numbers ("E series of preferred numbers").
+E_SERIES = {
+    "E6": (1.0, 1.5, 2.2, 3.3, 4.7, 6.8),
+    "E12": (1.0, 1.2, 1.5, 1.8, 2.2, 2.7, 3.3, 3.9, 4.7, 5.6, 6.8, 8.2),
+}
+
+
+def preferred_value_up(value, e_series="E12"):
+    """The smallest IEC 60063 preferred value at or above a component value.
 
     Parameters
     ----------
-    frequency, capacitance : float
-        Wanted resonant frequency [Hz] and C [F], > 0.
+    value : float
+        A component value [F, Ω or H], > 0.
+    e_series : str
+        "E6" or "E12".
 
     Returns
     -------
     float
-        L [H].
+        The preferred value ≥ value, in the same unit.
 
     Notes
     -----
-    L = 1 / ((2πf)² C): the same formula as capacitance_for_resonance, L and C swapped.
+    Each series repeats every decade: value = m × 10^k, 1 ≤ m < 10; the first mantissa of the
+    series ≥ m (within 1e-9, so a preferred value is its own answer), else 1 × 10^(k+1).
 
     References
     ----------
-    Alexander and Sadiku, *Fundamentals of Electric Circuits*, 5th ed., 14.5 — from memory.
+    IEC 60063:2015, E6 and E12 (read, as reproduced in Wikipedia; see E_SERIES).
 
     Examples
     --------
-    >>> round(inductance_for_resonance(1000.0, 1e-6) * 1e3, 3)
-    25.33
+    >>> preferred_value_up(44.7e-6), preferred_value_up(34e-6), preferred_value_up(34e-6, "E6")
+    (4.7e-05, 3.9e-05, 4.7e-05)
     """
-    return capacitance_for_resonance(frequency, capacitance)
+    mantissas = E_SERIES[_one_of("e_series", e_series, tuple(E_SERIES))]
+    exponent = math.floor(math.log10(value))
+    mantissa = value / 10.0 ** exponent
+    chosen = next((m for m in mantissas if m >= mantissa * (1.0 - 1e-9)), 10.0)
+    return float(f"{chosen:g}e{exponent}")  # "10e-5" is the next decade's 1e-4
 
 
 def quality_factor(topology, resistance, inductance, capacitance):
@@ -714,12 +720,10 @@ def clamped_kick(supply_voltage, resistance, inductance, clamp_voltage, dropout_
     Parameters
     ----------
     supply_voltage, resistance, inductance : float
-        DC supply across the coil while on [V]; the coil's winding resistance [Ω] and
-        inductance [H], > 0.
-    clamp_voltage : float
-        V_c [V], > 0: a diode's V_F, V_F + V_Z of a diode and zener, or a varistor's V_c at I.
-    dropout_fraction : float
-        Share of the holding current at which the armature releases [-], in (0, 1).
+        DC supply across the coil while on [V]; its winding resistance [Ω] and L [H], > 0.
+    clamp_voltage, dropout_fraction : float
+        V_c [V], > 0 (a diode's V_F, V_F + V_Z, or a varistor's V_c at I); the share of the
+        holding current at which the armature releases [-], in (0, 1).
 
     Returns
     -------
@@ -734,7 +738,7 @@ def clamped_kick(supply_voltage, resistance, inductance, clamp_voltage, dropout_
 
     References
     ----------
-    Nilsson and Riedel, *Electric Circuits*, 10th ed., section 7.2 (RL step) — from memory.
+    Nilsson and Riedel, *Electric Circuits*, 10th ed., section 7.3 (RL step) — from memory.
 
     Examples
     --------
@@ -758,12 +762,10 @@ def capacitive_kick(supply_voltage, resistance, inductance, capacitance, dropout
     Parameters
     ----------
     supply_voltage, resistance, inductance : float
-        DC supply across the coil while on [V]; the coil's winding resistance [Ω] and
-        inductance [H], > 0.
-    capacitance, snubber_resistance : float
-        The snubber's C [F] and R_s [Ω]; or the coil's stray capacitance [F] and 0.
-    dropout_fraction : float
-        Share of the holding current at which the armature releases [-], in (0, 1).
+        DC supply across the coil while on [V]; its winding resistance [Ω] and L [H], > 0.
+    capacitance, snubber_resistance, dropout_fraction : float
+        The snubber's C [F] and R_s [Ω] (or the stray C and 0); the share of the holding
+        current at which the armature releases [-], in (0, 1).
 
     Returns
     -------
@@ -806,8 +808,7 @@ def kick_waveform(supply_voltage, resistance, inductance, suppression, times, ca
     Parameters
     ----------
     supply_voltage, resistance, inductance : float
-        DC supply across the coil while on [V]; the coil's winding resistance [Ω] and
-        inductance [H], > 0.
+        DC supply across the coil while on [V]; its winding resistance [Ω] and L [H], > 0.
     suppression : str
         "none" or "rc" (a capacitance across the coil); "diode", "diode_zener" or "varistor".
     times : sequence of float
@@ -859,8 +860,7 @@ def suggested_snubber(supply_voltage, resistance, inductance, switch_limit_v, dr
     Parameters
     ----------
     supply_voltage, resistance, inductance : float
-        DC supply across the coil while on [V]; the coil's winding resistance [Ω] and
-        inductance [H], > 0.
+        DC supply across the coil while on [V]; its winding resistance [Ω] and L [H], > 0.
     switch_limit_v : float
         The most the opening switch may see [V]; above the supply.
     dropout_fraction : float

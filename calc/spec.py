@@ -13,6 +13,10 @@ INPUT_KINDS = ("quantity", "choice", "size", "flag", "text")
 
 CHECK_STATUSES = ("pass", "warn", "fail")
 
+# Practices a default can follow: North American (NEC/CEC) and IEC. An input's `default` is the
+# North American one; `region_defaults` holds the others.
+REGIONS = ("na", "iec")
+
 
 @dataclass(frozen=True)
 class Input:
@@ -39,6 +43,10 @@ class Input:
     advanced: bool = False  # the form folds it under "More inputs"; it works the same
     check: Callable | None = None  # text: raises InputError (or UnitError) for a bad code
     suggestions: tuple = ()  # text: common values the form offers
+    # Inputs with the same `group` are alternatives (a load as current, power or kVA): once one
+    # of them is given, the others take no default, so a value the user did not type never
+    # conflicts with one they did. The form clears the others when one is typed.
+    group: str = ""
 
     def __post_init__(self):
         if self.kind not in INPUT_KINDS:

@@ -23,11 +23,6 @@ PREFERRED_KVA_3PH_NA = (3, 9, 15, 30, 45, 75, 112.5, 150, 225, 300, 500, 750, 10
 PREFERRED_KVA_IEC = (25, 50, 100, 160, 250, 315, 400, 500, 630, 800, 1000, 1250, 1600, 2000, 2500,
                      3150, 4000, 5000, 6300, 8000, 10000)
 
-# General-purpose dry-type ratings below the distribution lists [kVA], for small equipment on a
-# foreign supply. Common practice (from memory).
-SMALL_KVA_1PH = (0.05, 0.1, 0.15, 0.25, 0.5, 0.75, 1, 1.5, 2, 3)
-SMALL_KVA_3PH = (6.0,)  # 3 and 9 kVA are already in the three-phase list
-
 # Winding connections, primary-secondary (see winding_voltage).
 WINDING_CONNECTIONS = ("delta-wye", "delta-delta", "wye-wye", "wye-delta")
 
@@ -39,9 +34,18 @@ SHORT_CIRCUIT_CATEGORY_KVA = {1: (500, 1667, 10000), 3: (500, 5000, 30000)}
 # §9.2, read as quoted from C57.12.51). The low end gives the highest fault current.
 IMPEDANCE_TOLERANCE = 0.075
 
-# IEC 60909-0 Table 1 voltage factor c_max (from memory): 1.05 for low-voltage systems with a
-# +6 % tolerance, 1.10 for +10 % and for every system above 1 kV. c = 1 is the nominal-voltage
-# practice of IEEE Std 141 / IEEE Std 551 (no correction).
+# Single-phase three-wire (mid-tapped, 120/240 V) secondary: a line-to-neutral fault drives one
+# half-winding of about 1.5 %R + j1.2 %X (of the full winding, per unit of the rating on the half
+# voltage), so I_LN is 4/3 (all R) to 5/3 (all X), about 1.5 ×, the line-to-line fault. Read: the
+# point-to-point method's Note 2, as reproduced at scribd.com/document/388329023; the same split
+# is Kersting's centre-tapped model (Distribution System Modeling and Analysis, from memory), read
+# as gridlab-d/gridlab-d powerflow/transformer.cpp implements it: Z₁ = Z₂ = R + j0.4 X (half).
+MID_TAP_R_FACTOR = 1.5
+MID_TAP_X_FACTOR = 1.2
+
+# IEC 60909-0 Table 1 voltage factor c_max (read, as reproduced in pandapower's doc/shortcircuit/
+# correction.rst): 1.05 for low-voltage systems with a +6 % tolerance, 1.10 for +10 % and for
+# every system above 1 kV. c = 1 is IEEE Std 141 / IEEE Std 551 practice (no correction).
 VOLTAGE_FACTORS = (
     ("1", "c = 1.00: nominal voltage, no correction (IEEE/ANSI practice)"),
     ("1.05", "c = 1.05: IEC 60909 c_max, low voltage with +6 % tolerance"),
@@ -57,9 +61,10 @@ TAP_STEP_PCT = 2.5
 TAP_STEPS = 2  # on each side of the rated tap
 STANDARD_TAPS_PCT = tuple(TAP_STEP_PCT * n for n in range(-TAP_STEPS, TAP_STEPS + 1))
 
-# Voltage band the loaded secondary should stay in [± %]. North America: ANSI C84.1 Range A at
-# the service, 114-126 V on 120 V, i.e. ±5 % (from memory); IEC 60038: 230/400 V ±10 % (from
-# memory). Local rules and the equipment's own tolerance may be tighter.
+# Voltage band the loaded secondary should stay in [± %] (local rules may be tighter). ANSI C84.1
+# Range A at the service, 114-126 V on 120 V, ±5 %; IEC practice ±10 %, which the page read gives
+# as IEC 61000-2-2 / EN 50160 (both read, as quoted at powerstandards.com/tutorials/
+# VoltageRegulation.php); IEC 60038's 230/400 V ±10 % from memory.
 VOLTAGE_BAND_PCT = {"na": 5.0, "iec": 10.0}
 
 # A winding may be run at up to 105 % of its rated voltage at rated load (IEEE C57.12.00 §4.1.6
@@ -75,10 +80,6 @@ BUCK_BOOST_WINDINGS = (
     ("240/480 × 24/48 V", 240.0, 24.0),
 )
 BUCK_BOOST_KVA = (0.05, 0.1, 0.15, 0.25, 0.5, 0.75, 1, 1.5, 2, 3, 5, 7.5, 10)  # their ratings
-# Units in a bank: one single-phase, three in a four-wire wye, two in open delta.
-BANK_UNITS = {"single": 1, "wye": 3, "open-delta": 2}
-
-MOTOR_DIP_LIMIT_PCT = 15.0  # start dip at the motor's bus: the usual design limit (common practice)
 
 
 # ---- currents, ratios and ratings --------------------------------------------------------------
@@ -377,7 +378,7 @@ class FaultLevel(NamedTuple):
     x_r: float  # X/R of the whole path at the fault
     kappa: float  # IEC 60909 peak factor
     peak_current: float  # i_p = κ √2 I''k [A]
-    line_to_neutral_current: float  # three-phase delta-wye only: I''k1 [A] (else nan)
+    line_to_neutral_current: float  # delta-wye I''k1 or a mid-tapped 1-phase one [A], else nan
 
 
 def source_voltage_factor(primary_voltage, voltage_factor):
@@ -401,7 +402,7 @@ def source_voltage_factor(primary_voltage, voltage_factor):
 
     References
     ----------
-    IEC 60909-0, Table 1 (voltage factor c) — from memory.
+    IEC 60909-0 Table 1 (factor c) — read, as reproduced in pandapower's shortcircuit docs.
 
     Examples
     --------
@@ -415,7 +416,7 @@ def source_voltage_factor(primary_voltage, voltage_factor):
 
 def secondary_fault(apparent_power, primary_voltage, secondary_voltage, phases, z_pct, x_r,
                     source_short_circuit_power=None, source_x_r=network.DEFAULT_SOURCE_X_R,
-                    voltage_factor=1.0, delta_wye=False):
+                    voltage_factor=1.0, delta_wye=False, mid_tap=False):
     """Bolted fault current at a transformer's secondary, infinite or finite source.
 
     A thin view over calc.network.faults on a one-transformer path, so this calculator and the
@@ -443,6 +444,9 @@ def secondary_fault(apparent_power, primary_voltage, secondary_voltage, phases, 
         1.10). Any value other than 1 is the IEC 60909 maximum case.
     delta_wye : bool
         Three-phase delta primary, grounded-wye secondary: also the line-to-neutral fault.
+    mid_tap : bool
+        Single-phase three-wire secondary, neutral at the mid-tap (120/240 V): also the fault
+        from one line to the neutral.
 
     Returns
     -------
@@ -459,13 +463,17 @@ def secondary_fault(apparent_power, primary_voltage, secondary_voltage, phases, 
     κ = 1.02 + 0.98 e^(−3R/X) of Z_S + Z_T. Line-to-neutral on a delta-wye unit: I''k1 =
     3 c I_FL / |2 Z₁ + Z₀| with Z₁ = Z_S + Z_T and Z₀ = Z_T (the delta blocks the source's zero
     sequence; the transformer's zero-sequence impedance is taken equal to its positive-sequence
-    one, K_T included).
+    one, K_T included). Mid-tapped single-phase: I_LN = 2 c I_FL / |Z_S + K_T Z_half| with
+    Z_half = MID_TAP_R_FACTOR × R_T + j MID_TAP_X_FACTOR × X_T, per unit of S_T on V₂ / 2 (Z_S
+    is the same per unit on either base).
 
     References
     ----------
     Infinite and finite source: IEEE Std 141 method; IAEI Magazine, J. Phillips, "Short-circuit
     calculations using transformer and source impedance" (2018) (read). IEC 60909-0: c (Table
-    1), Z_Q (§6.2), K_T (§6.3.3), κ (§4.3.1.1), I''k1 (§4.2.1.3) — from memory.
+    1), K_T (§6.3.3) and κ (§4.3.1.1) read, as reproduced in pandapower's documentation
+    (doc/shortcircuit/); Z_Q (§6.2), I''k1 (§4.2.1.3) and the clause numbers from memory.
+    Mid-tap: see MID_TAP_R_FACTOR (read).
 
     Examples
     --------
@@ -490,6 +498,11 @@ def secondary_fault(apparent_power, primary_voltage, secondary_voltage, phases, 
     line_to_neutral = math.nan
     if phases == 3 and delta_wye and fault.line_to_neutral_a is not None:
         line_to_neutral = fault.line_to_neutral_a
+    elif phases != 3 and mid_tap:
+        z_t = correction * impedance_per_unit(z_pct, x_r)
+        half = complex(MID_TAP_R_FACTOR * z_t.real, MID_TAP_X_FACTOR * z_t.imag)
+        line_to_neutral = voltage_factor * 2.0 * apparent_power / secondary_voltage / abs(
+            z_source + half)
     return FaultLevel(rated_current(apparent_power, secondary_voltage, phases),
                       correction * impedance_per_unit(z_pct, x_r), z_source, correction,
                       fault.three_phase_a, infinite.three_phase_a, fault.x_r,

@@ -240,6 +240,34 @@ def to_si(value, unit: str) -> float:
     return _float((number - entry.zero) * entry.factor, value)
 
 
+def typed_unit(value, unit: str) -> str:
+    """The unit symbol a quantity was given in: the one typed after the number, or the
+    declared `unit` for a bare number. The value is assumed valid (read by to_si first).
+
+    Parameters
+    ----------
+    value : int, float or str
+        The quantity as received.
+    unit : str
+        The declared unit symbol.
+
+    Returns
+    -------
+    str
+        The unit symbol as typed, folded (NFKC, no spaces): "hp", "ft", "kVA".
+
+    Examples
+    --------
+    >>> typed_unit("10 hp", "kW"), typed_unit("150 ft", "m"), typed_unit(75, "kVA")
+    ('hp', 'ft', 'kVA')
+    """
+    if isinstance(value, str):
+        match = _QUANTITY.fullmatch(_fold(value))
+        if match and match["unit"]:
+            return "".join(match["unit"].split())
+    return unit
+
+
 def from_si(value_si: float, unit: str) -> float:
     """Express a coherent SI value (°C for temperature, % for percent) in `unit`.
 

@@ -284,7 +284,8 @@ def approximate_drop(system, current, resistance, reactance, power_factor):
     References
     ----------
     IEEE Std 141-1993 (Red Book), ch. 3 (from memory); NEC Chapter 9 Table 9, note 2 (read, as
-    quoted); IEC 60364-5-52 Annex G (the same form with b = 1 or 2; read, as reproduced).
+    quoted); IEC 60364-5-52 Annex G (the same form with b = 1 or 2; read, as reproduced at
+    scribd.com/document/599637287).
 
     Examples
     --------
@@ -326,18 +327,18 @@ def nominal_scale(system):
 
 
 def conductor_loss(system, current, resistance, neutral_current=0.0):
-    """I²R loss of the whole run.
+    """I²R loss of the whole run, each conductor at its own current.
 
     Parameters
     ----------
     system : str
         "dc", "1ph", "1ph3w" or "3ph".
     current : float
-        Load current per line [A].
+        Load current per line [A]; for an unbalanced 1ph3w load, the heavier leg's.
     resistance : float
         Resistance of one conductor of the run [Ω].
     neutral_current : float
-        Current in the neutral (1ph3w unbalance) [A].
+        Current in the neutral (1ph3w unbalance) [A], at most `current`.
 
     Returns
     -------
@@ -346,26 +347,30 @@ def conductor_loss(system, current, resistance, neutral_current=0.0):
 
     Notes
     -----
-    P = n I² R + I_N² R, n the conductors that carry the load current (LOADED_CONDUCTORS).
+    P = n I² R, n the conductors that carry the load current (LOADED_CONDUCTORS). On 1ph3w with
+    loads of one power factor the lighter line carries I − I_N, so P = [I² + (I − I_N)² + I_N²] R.
 
     References
     ----------
     J. D. Glover, M. S. Sarma, T. J. Overbye, Power System Analysis and Design, 5th ed., ch. 5
-    — from memory.
+    — from memory; the three-wire currents by Kirchhoff's current law at the load.
 
     Examples
     --------
-    >>> conductor_loss("3ph", 10.0, 0.5), conductor_loss("1ph3w", 10.0, 0.5, 4.0)
-    (150.0, 108.0)
+    >>> conductor_loss("3ph", 10.0, 0.5), conductor_loss("1ph3w", 40.0, 0.5, 20.0)
+    (150.0, 1200.0)
     """
-    return (LOADED_CONDUCTORS[system] * current * current * resistance
-            + neutral_current ** 2 * resistance)
+    if system == "1ph3w" and neutral_current:
+        lighter = current - neutral_current
+        return (current * current + lighter * lighter + neutral_current ** 2) * resistance
+    return LOADED_CONDUCTORS[system] * current * current * resistance
 
 
 # ---- one run, solved ------------------------------------------------------------------------
 
 class RunSolution(NamedTuple):
-    """A run solved both ways. Voltages are in terms of the nominal voltage (LL for 3ph/1ph3w)."""
+    """A run solved both ways. Voltages are in terms of the nominal voltage (LL for 3ph/1ph3w);
+    on 1ph3w the leg figures are the heavier leg's, line to neutral, where its loads are."""
 
     current: float  # load current [A]
     end_v: float  # exact load-end voltage [V]
@@ -376,6 +381,31 @@ class RunSolution(NamedTuple):
     loss_w: float  # I²R of the run [W]
     resistance: float  # one conductor of the run, sets in parallel [Ω]
     reactance: float  # [Ω]
+    leg_end_v: float | None = None  # 1ph3w: heavier leg's load-end voltage to neutral [V]
+    leg_drop_v: float | None = None  # 1ph3w: its drop [V]
+    leg_drop_pct: float | None = None  # 1ph3w: of the leg's nominal (V/2) [%]
+    light_leg_end_v: float | None = None  # 1ph3w: the lighter leg's [V]
+
+    @property
+    def limit_drop_pct(self):
+        """The drop a limit is judged on [%]: the heavier leg's on 1ph3w, else drop_pct."""
+        return self.drop_pct if self.leg_drop_pct is None else max(self.drop_pct,
+                                                                   self.leg_drop_pct)
+
+
+def _three_wire(voltage, current, neutral_current, resistance, reactance, power_factor):
+    """(line-to-line end, heavier leg end, lighter leg end) [V] of a 120/240 V run whose legs draw
+    `current` and current − neutral_current at one power factor."""
+    if not 0.0 <= neutral_current <= current:
+        raise ParameterError("neutral_current", neutral_current,
+                             f"the neutral carries the difference of the two legs' currents: "
+                             f"0 to the heavier leg's {current:g} A")
+    leg = voltage / 2.0
+    lighter = current - neutral_current
+    args = (resistance, reactance, power_factor)
+    return (receiving_voltage(voltage, current + lighter, *args),
+            receiving_voltage(leg, current + neutral_current, *args),
+            receiving_voltage(leg, lighter - neutral_current, *args))
 
 
 def solve_run(system, voltage, length, r_per_m, x_per_m, power_factor, sets=1, current=None,
@@ -397,29 +427,33 @@ def solve_run(system, voltage, length, r_per_m, x_per_m, power_factor, sets=1, c
     sets : int
         Conductors in parallel per phase.
     current : float, optional
-        Load current per line [A] (constant-current load) ...
+        Load current per line [A] (constant-current load); the heavier leg's on 1ph3w ...
     power : float, optional
-        ... or total real power drawn [W] (constant-power load); give exactly one.
+        ... or total real power drawn [W] (constant-power, balanced); give exactly one.
     neutral_current : float
-        1ph3w only: current in the neutral from unbalance [A], taken in phase with the line
-        current, which is the worst case for the more heavily loaded leg.
+        1ph3w only: current in the neutral from unbalance [A], 0 to `current`: the legs draw
+        `current` and current − neutral_current at one power factor.
 
     Returns
     -------
     RunSolution
-        Current, exact and approximate drop, load-end voltage and loss.
+        Current, exact and approximate drop, load-end voltage and loss; on 1ph3w also the
+        heavier leg's drop to neutral.
 
     Raises
     ------
     calc.errors.VoltageCollapse
         The run cannot carry the load.
+    calc.errors.ParameterError
+        On `neutral_current` above the leg current, or given with a power.
 
     Notes
     -----
     R = r L / n, X = x L / n for one conductor; the load path's impedance (load_path_impedance)
     carries the current from V_s = V / s (path_voltage) to V_r (receiving_voltage); the drop is
-    s (V_s − V_r), s = nominal_scale(system). An unbalanced 120/240 V neutral adds its drop to
-    the leg's: the path impedance is scaled by 1 + I_N / I.
+    s (V_s − V_r), s = nominal_scale(system). 1ph3w with legs I_A ≥ I_B and I_N = I_A − I_B: the
+    heavier leg sees (I_A + I_N) Z from V/2, the lighter (I_B − I_N) Z (a rise when negative),
+    and line to line (I_A + I_B) Z from V (the neutral's drop cancels).
 
     References
     ----------
@@ -430,16 +464,30 @@ def solve_run(system, voltage, length, r_per_m, x_per_m, power_factor, sets=1, c
     --------
     >>> round(solve_run("1ph", 120.0, 30.0, 0.0065, 0.0, 1.0, current=16.0).drop_v, 3)
     6.24
+    >>> run = solve_run("1ph3w", 240.0, 30.0, 0.0065, 0.0, 1.0, current=40.0, neutral_current=20.0)
+    >>> round(run.leg_drop_v, 3), round(run.drop_v, 3), round(run.loss_w, 1)
+    (11.7, 11.7, 468.0)
     """
     if system == "dc":
         power_factor, x_per_m = 1.0, 0.0
     resistance = r_per_m * length / sets
     reactance = x_per_m * length / sets
-    path_r, path_x = load_path_impedance(system, resistance, reactance)
     if system == "1ph3w" and neutral_current:
-        line = current if current is not None else power / (voltage * power_factor)
-        scale = 1.0 + neutral_current / line  # the neutral's drop adds to the leg's
-        path_r, path_x = path_r * scale, path_x * scale
+        if current is None:
+            raise ParameterError("neutral_current", neutral_current, "with an unbalanced "
+                                 "120/240 V load give the heavier leg's current, not a power")
+        end, leg_end, light_end = _three_wire(voltage, current, neutral_current, resistance,
+                                              reactance, power_factor)
+        drop = voltage - end
+        approx = (approximate_drop(system, current, resistance, reactance, power_factor)
+                  * (2.0 * current - neutral_current) / (2.0 * current))
+        leg = voltage / 2.0
+        return RunSolution(current, end, drop, 100.0 * drop / voltage, approx,
+                           100.0 * approx / voltage,
+                           conductor_loss(system, current, resistance, neutral_current),
+                           resistance, reactance, leg_end, leg - leg_end,
+                           100.0 * (leg - leg_end) / leg, light_end)
+    path_r, path_x = load_path_impedance(system, resistance, reactance)
     send = path_voltage(system, voltage)
     if current is not None:
         end = receiving_voltage(send, current, path_r, path_x, power_factor)
@@ -449,11 +497,10 @@ def solve_run(system, voltage, length, r_per_m, x_per_m, power_factor, sets=1, c
     scale = nominal_scale(system)
     drop = (send - end) * scale
     approx = approximate_drop(system, current, resistance, reactance, power_factor)
-    if system == "1ph3w" and neutral_current:
-        approx *= 1.0 + neutral_current / current
-    loss = conductor_loss(system, current, resistance, neutral_current if system == "1ph3w" else 0)
+    legs = (end, send - end, 100.0 * (send - end) / send, end) if system == "1ph3w" else ()
     return RunSolution(current, end * scale, drop, 100.0 * drop / voltage, approx,
-                       100.0 * approx / voltage, loss, resistance, reactance)
+                       100.0 * approx / voltage, conductor_loss(system, current, resistance),
+                       resistance, reactance, *legs)
 
 
 def max_run_length(system, voltage, r_per_m, x_per_m, power_factor, max_drop_pct, sets=1,
@@ -510,7 +557,7 @@ def max_run_length(system, voltage, r_per_m, x_per_m, power_factor, max_drop_pct
     def drop_at(length):
         try:
             return solve_run(system, voltage, length, r_per_m, x_per_m, power_factor, sets,
-                             current, power, neutral_current).drop_pct
+                             current, power, neutral_current).limit_drop_pct
         except VoltageCollapse:
             return math.inf
 

@@ -11,6 +11,7 @@ from scipy.integrate import solve_ivp
 
 from calc import api
 from calc import dc_motors as motors
+from calc.calculators import back_emf
 from tests import spice_motor
 from tests.conftest import check_message, checks, errors, run, values
 
@@ -557,3 +558,73 @@ def test_threshold_starter_torque_against_the_load():
     for share, stuck in ((0.99, False), (1.01, True)):
         result = run("back-emf", start_limit=2, load_pct=share * 200)
         assert ("cannot_start_starter" in checks(result)) is stuck
+
+
+# ==== plausibility (issue 11 item 9) ===========================================================
+
+INSIDE, OUTSIDE = 0.99, 1.01  # a threshold test lands 1 % inside and 1 % outside the limit
+
+
+def _plausibility(**inputs):
+    result = run("back-emf", **inputs)
+    return checks(result)["plausibility"], check_message(result, "plausibility")
+
+
+def test_issue_11_reference_speed_of_5_rpm_warns():
+    # Issue 11 item 9: a known speed of 5 r/min gave 7334 N·m and a sub-millisecond run-up with
+    # every check OK. DC motor base speeds run from about 50 r/min (common practice).
+    status, message = _plausibility(speed_ref=5)
+    assert status == "warn" and "5 r/min" in message and "run-up" in message
+
+
+def test_back_emf_defaults_and_ordinary_vectors_are_plausible():
+    import json
+    from tests.vectors import VECTOR_DIR
+    assert _plausibility()[0] == "pass"
+    data = json.loads((VECTOR_DIR / "back-emf.json").read_text(encoding="utf-8"))
+    for vector in data["vectors"]:
+        if "expect" in vector:
+            assert checks(api.run("back-emf", vector["inputs"]))["plausibility"] == "pass", \
+                vector["name"]
+
+
+@pytest.mark.parametrize("edge", [0, 1])
+def test_speed_range_threshold(edge):
+    # A large inertia keeps the run-up long, so only the speed is judged.
+    limit = back_emf.SPEED_RANGE_RPM[edge]
+    inside = limit * (OUTSIDE if edge == 0 else INSIDE)
+    beyond = limit * (INSIDE if edge == 0 else OUTSIDE)
+    assert _plausibility(speed_ref=inside, inertia=1000)[0] == "pass"
+    status, message = _plausibility(speed_ref=beyond, inertia=1000)
+    assert status == "warn" and "known speed" in message
+
+
+@pytest.mark.parametrize("edge", [0, 1])
+def test_voltage_range_threshold(edge):
+    limit = back_emf.VOLTAGE_RANGE_V[edge]
+    inside = limit * (OUTSIDE if edge == 0 else INSIDE)
+    beyond = limit * (INSIDE if edge == 0 else OUTSIDE)
+    common = {"armature_r": 0.01, "inertia": 1000} if edge == 0 else {}
+    assert _plausibility(voltage=inside, **common)[0] == "pass"
+    assert _plausibility(voltage=beyond, **common)[0] == "warn"
+
+
+def test_largest_motor_threshold():
+    common = {"voltage": 1000, "current": 9000, "armature_r": 0.005, "inertia": 1e5}
+    edge = back_emf.LARGEST_POWER_W / 1000
+    assert "largest DC motors" not in _plausibility(rated_current=edge * INSIDE, **common)[1]
+    assert "largest DC motors" in _plausibility(rated_current=edge * OUTSIDE, **common)[1]
+
+
+def test_shortest_run_up_threshold():
+    # With no inductance, no friction and a constant load, the run-up is proportional to the
+    # inertia (τ = J R / k², computed); the inertia is scaled to put it 1 % either side.
+    base = {"inductance": 0, "start_limit": ""}
+    run_up = values(run("back-emf", **base, inertia=1.0))["run_up_s"]
+    edge = back_emf.SHORTEST_RUN_UP_S / run_up
+    inside = run("back-emf", **base, inertia=edge * OUTSIDE)
+    beyond = run("back-emf", **base, inertia=edge * INSIDE)
+    assert values(inside)["run_up_s"] == pytest.approx(back_emf.SHORTEST_RUN_UP_S * OUTSIDE,
+                                                       rel=1e-3)  # RK4 sampling, 1e-3
+    assert checks(inside)["plausibility"] == "pass"
+    assert "run-up" in check_message(beyond, "plausibility")

@@ -19,6 +19,7 @@ HP = 745.69987158227022  # W: 550 ft·lbf/s, exact from the foot, pound and g_n 
 
 # The default motor-current inputs: 10 hp, 460 V, three-phase, η 0.91, pf 0.85, code H.
 DEFAULT_FLC = 10 * HP / (0.91 * 0.85 * SQRT3 * 460)
+INSIDE, OUTSIDE = 0.99, 1.01  # a threshold test lands 1 % inside and 1 % outside the limit
 
 
 # ==== code letters ===========================================================================
@@ -90,7 +91,8 @@ def typical_pf(hp):
 
 
 # NEC Table 430.250 three-phase full-load currents, typed from the code book independently of
-# calc/induction_motors.py (from memory; the 2008 table's reproduction agrees): a few rows.
+# calc/induction_motors.py (read, as reproduced: NEC 2017, mjk83093/sil NEC2017_Chapter_4.md;
+# NEC 2008, scribd.com/doc/250218196): a few rows.
 NEC_430_250_SPOT = {(10, 460): 14.0, (10, 230): 28.0, (10, 208): 30.8, (25, 575): 27.0,
                     (50, 200): 150.0, (100, 460): 124.0, (200, 2300): 49.0, (500, 460): 590.0,
                     (0.5, 115): 4.4, (3, 575): 3.9}
@@ -144,7 +146,8 @@ def test_formula_against_single_phase_table_from_2_hp():
     (480, 460), (440, 460), (600, 575), (550, 575), (240, 230), (220, 230), (120, 115),
     (208, 208), (200, 200), (2300, 2300)])
 def test_table_serves_the_system_voltage_ranges(volts, column):
-    # NEC Table 430.250 heading: currents permitted for 110-120, 220-240, 440-480, 550-600 V.
+    # NEC Table 430.250 heading: currents permitted for 110-120, 220-240, 440-480, 550-600 V
+    # (read, as reproduced).
     size = {120: 2, 2300: 100}.get(volts, 25)  # 115 V lists up to 2 hp, 2300 V from 60 hp
     current, used, _ = im.nec_table_current(size * HP, volts, 3)
     assert used == column and current is not None
@@ -396,8 +399,8 @@ def test_threshold_locked_rotor_multiple(bound):
 
 @pytest.mark.parametrize("side", [1, -1])
 def test_threshold_table_agreement(side):
-    # 10 hp 460 V: NEC Table 430.250 gives 14 A (from memory). The efficiency is chosen so the
-    # formula lands at 14 A × (1 ± 0.99 or 1.01 × TABLE_AGREEMENT) (computed here).
+    # 10 hp 460 V: NEC Table 430.250 gives 14 A (read, as reproduced). The efficiency is chosen
+    # so the formula lands at 14 A × (1 ± 0.99 or 1.01 × TABLE_AGREEMENT) (computed here).
     band = motor_current.TABLE_AGREEMENT
     for share, status in ((0.99, "pass"), (1.01, "warn")):
         target = 14.0 * (1 + side * share * band)
@@ -488,3 +491,74 @@ def test_every_output_the_view_sets_is_in_the_spec(inputs):
     spec = api.get("motor-current")
     result = spec.compute(api.validate(spec, inputs))
     assert set(result.outputs) <= {output.name for output in spec.outputs}
+
+
+# ==== plausibility (issue 11 item 9) ===========================================================
+
+def _plausibility(**inputs):
+    result = run("motor-current", **inputs)
+    return checks(result)["plausibility"], check_message(result, "plausibility")
+
+
+def test_issue_11_2000_hp_at_208_v_warns():
+    # Issue 11 item 9: 2000 hp at 208 V drew 5.35 kA with no remark. NEC Table 430.250 lists
+    # 200-230 V motors only to 200 hp (read, as reproduced); larger motors are medium-voltage
+    # (NEMA MG 1 voltage ratings by size, common practice).
+    status, message = _plausibility(power="2000 hp", voltage=208)
+    assert status == "warn" and "2.3 kV" in message and "2000 hp" in message
+
+
+@pytest.mark.parametrize("voltage, edge_hp", [(208, 200), (115, 2), (460, 1000e3 / HP)])
+def test_motor_size_by_voltage_threshold(voltage, edge_hp):
+    # The largest usual size at each voltage: NEC Table 430.250's column (200-230 V: 200 hp,
+    # 115 V: 2 hp) or 1000 kW of IEC low-voltage practice (common practice).
+    assert im.usual_power_range(voltage, 3)[1] == pytest.approx(edge_hp * HP, rel=1e-12)
+    assert _plausibility(power=f"{edge_hp * INSIDE} hp", voltage=voltage)[0] == "pass"
+    assert _plausibility(power=f"{edge_hp * OUTSIDE} hp", voltage=voltage)[0] == "warn"
+
+
+def test_medium_voltage_motor_smallest_size_threshold():
+    # NEC Table 430.250's 2300 V column starts at 60 hp (read, as reproduced).
+    assert _plausibility(power=f"{60 * OUTSIDE} hp", voltage=4160, code_table="none")[0] == "pass"
+    status, message = _plausibility(power=f"{60 * INSIDE} hp", voltage=4160, code_table="none")
+    assert status == "warn" and "medium-voltage" in message
+
+
+def test_single_phase_size_and_voltage_thresholds():
+    # NEC Table 430.248 stops at 10 hp (read, as reproduced); no single-phase motors above 1 kV.
+    assert _plausibility(power=f"{10 * INSIDE} hp", voltage=230, phases="1")[0] == "pass"
+    assert _plausibility(power=f"{10 * OUTSIDE} hp", voltage=230, phases="1")[0] == "warn"
+    assert im.usual_power_range(2300, 1) == (0.0, 0.0)
+
+
+@pytest.mark.parametrize("edge", [0, 1])
+def test_motor_voltage_range_threshold(edge):
+    limit = im.MOTOR_VOLTAGE_RANGE_V[edge]
+    inside = limit * (OUTSIDE if edge == 0 else INSIDE)
+    beyond = limit * (INSIDE if edge == 0 else OUTSIDE)
+    power = "1 hp" if edge == 0 else "1000 hp"
+    assert _plausibility(power=power, voltage=inside, code_table="none")[0] == "pass"
+    assert _plausibility(power=power, voltage=beyond, code_table="none")[0] == "warn"
+
+
+@pytest.mark.parametrize("field, limits", [("efficiency", motor_current.EFFICIENCY_RANGE),
+                                           ("pf", motor_current.POWER_FACTOR_RANGE)])
+@pytest.mark.parametrize("edge", [0, 1])
+def test_efficiency_and_power_factor_thresholds(field, limits, edge):
+    limit = limits[edge]
+    inside = limit * (OUTSIDE if edge == 0 else INSIDE)
+    beyond = limit * (INSIDE if edge == 0 else OUTSIDE)
+    assert _plausibility(**{field: inside}, lr_multiple=7)[0] == "pass"
+    assert _plausibility(**{field: beyond}, lr_multiple=7)[0] == "warn"
+
+
+def test_motor_current_defaults_and_ordinary_vectors_are_plausible():
+    import json
+    from tests.vectors import VECTOR_DIR
+    for region in (None, "iec"):
+        assert checks(api.run("motor-current", {}, region))["plausibility"] == "pass"
+    data = json.loads((VECTOR_DIR / "motor-current.json").read_text(encoding="utf-8"))
+    for vector in data["vectors"]:
+        if "expect" in vector:
+            assert checks(api.run("motor-current", vector["inputs"]))["plausibility"] == "pass", \
+                vector["name"]

@@ -628,6 +628,28 @@ def test_alt_size_larger_threshold(alt_size, status):
     assert checks(run(size="1/0", alt_size=alt_size)).get("alt_size_larger") == status
 
 
+@pytest.mark.parametrize("factor, status", [(INSIDE, "pass"), (OUTSIDE, "warn")])
+def test_plausible_current_threshold_issue_11(factor, status):
+    # Issue 11, item 9: the first voltage's current set, through the power, at the plausibility
+    # multiple × 1/0 copper's 90 °C ampacity (NEC Table 310.16, 170 A) × 0.99 / 1.01; a short
+    # run and a large comparison size so nothing else is out of range.
+    from calc.calculators import _conductors
+    current = (_conductors.PLAUSIBLE_CURRENT_MULTIPLE * _conductors.AMPACITY_90C["cu"]["1/0 AWG"]
+               * factor)
+    power = current * math.sqrt(3) * 480 * 0.9
+    result = run(system="3ph", power=f"{power} W", pf=0.9, voltage=480, alt_voltage=600,
+                 length="10 ft", size="1/0", alt_size="500 kcmil")
+    assert checks(result)["plausibility"] == status
+    if status == "warn":
+        assert "1/0 AWG copper" in check_message(result, "plausibility")
+
+
+def test_defaults_are_plausible_and_say_their_conductor_data():
+    for region in ("na", "iec"):
+        found = checks(api.run("line-loss", {}, region=region))
+        assert found["plausibility"] == "pass" and found["conductor_data"] == "pass"
+
+
 # ---- every error path ---------------------------------------------------------------------
 
 @pytest.mark.parametrize("inputs, field, words", [
@@ -643,6 +665,7 @@ def test_alt_size_larger_threshold(alt_size, status):
     ({"alt_size": "13 AWG"}, "alt_size", "not a standard AWG size"),
     ({"system": "2ph"}, "system", "choose one of"),
     ({"speed": 3}, "speed", "unknown input"),
+    ({"power": "50 hp"}, "power", "motor's output"),
 ])
 def test_bad_inputs_get_field_messages(inputs, field, words):
     assert words in errors(**inputs)[field]
@@ -696,7 +719,10 @@ def test_a_comparison_size_not_made_in_the_material_names_its_own_field():
     assert "not made in aluminium" in message
 
 
-def test_a_size_without_a_table_value():
+def test_a_size_without_a_table_value(monkeypatch):
+    # Every offered size has a table value (NEC 2017 Table 8 lists aluminium from 18 AWG, read,
+    # as reproduced); take aluminium 16 AWG out to reach the refusal.
+    monkeypatch.delitem(conductors.NEC_TABLE8_AL_STRANDED_75C, "16 AWG")
     assert "choose physics" in errors(material="al", size="1/0", alt_size="16 AWG",
                                       method="table")["method"]
 

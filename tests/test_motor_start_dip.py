@@ -296,3 +296,67 @@ def test_a_size_not_made_in_aluminium_is_refused_on_its_field(field):
     # IEC 60228 Class 2 has no aluminium conductor below 10 mm² (as calc.conductors holds it).
     refused = errors("motor-start-dip", **{field: "2.5 mm2", "material": "al"})
     assert field in refused and "aluminium" in refused[field]
+
+
+# ==== plausibility (issue 11 item 9) ===========================================================
+
+INSIDE, OUTSIDE = 0.99, 1.01  # a threshold test lands 1 % inside and 1 % outside the limit
+STIFF = {"starting": "vfd", "feeder_size": "1000 kcmil", "branch_size": "1000 kcmil",
+         "feeder_length": "10 ft", "branch_length": "10 ft", "other_kva": 0}
+
+
+def _plausibility(**inputs):
+    result = run("motor-start-dip", **{**BASE, **inputs})
+    return checks(result)["plausibility"], check_message(result, "plausibility")
+
+
+def test_motor_start_dip_defaults_and_ordinary_vectors_are_plausible():
+    import json
+    from tests.vectors import VECTOR_DIR
+    for region in (None, "iec"):
+        assert checks(api.run("motor-start-dip", {}, region))["plausibility"] == "pass"
+    data = json.loads((VECTOR_DIR / "motor-start-dip.json").read_text(encoding="utf-8"))
+    for vector in data["vectors"]:
+        if "expect" in vector:
+            assert checks(api.run("motor-start-dip", vector["inputs"]))["plausibility"] == \
+                "pass", vector["name"]
+
+
+@pytest.mark.parametrize("volts, edge_hp", [(208, 200), (480, 1000e3 / HP)])
+def test_motor_size_at_the_utilisation_voltage_threshold(volts, edge_hp):
+    # NEC Table 430.250 lists 200-230 V motors to 200 hp; 460-690 V motors are made to about
+    # 1000 kW (common practice). A drive start on a stiff path keeps the path solvable.
+    inside = _plausibility(**STIFF, motor_power=f"{edge_hp * INSIDE} hp", secondary_v=volts,
+                           xfmr_kva=4000)
+    beyond = _plausibility(**STIFF, motor_power=f"{edge_hp * OUTSIDE} hp", secondary_v=volts,
+                           xfmr_kva=4000)
+    assert inside[0] == "pass" and beyond[0] == "warn" and "2.3 kV" in beyond[1]
+
+
+@pytest.mark.parametrize("edge", [0, 1])
+def test_locked_rotor_power_factor_threshold(edge):
+    limit = motor_start_dip.LOCKED_ROTOR_PF_RANGE[edge]
+    inside = limit * (OUTSIDE if edge == 0 else INSIDE)
+    beyond = limit * (INSIDE if edge == 0 else OUTSIDE)
+    assert _plausibility(starting_pf=inside)[0] == "pass"
+    assert _plausibility(starting_pf=beyond)[0] == "warn"
+
+
+def test_transformer_rating_threshold():
+    top_kva = motor_start_dip.LV_TRANSFORMER_VA[1] / 1e3
+    assert _plausibility(xfmr_kva=top_kva * INSIDE)[0] == "pass"
+    assert _plausibility(xfmr_kva=top_kva * OUTSIDE)[0] == "warn"
+
+
+@pytest.mark.parametrize("edge", [0, 1])
+def test_nameplate_lra_multiple_threshold(edge):
+    # Across-the-line starting draws 4-10 × FLC (common practice); FLC estimated with the
+    # calculator's assumed efficiency and power factor.
+    flc = im.full_load_current(25 * HP, 480, 3, motor_start_dip.ASSUMED_EFFICIENCY,
+                               motor_start_dip.ASSUMED_PF)
+    limit = im.PLAUSIBLE_LOCKED_ROTOR_MULTIPLE[edge] * flc
+    inside = limit * (OUTSIDE if edge == 0 else INSIDE)
+    beyond = limit * (INSIDE if edge == 0 else OUTSIDE)
+    assert _plausibility(lra=inside)[0] == "pass"
+    status, message = _plausibility(lra=beyond)
+    assert status == "warn" and "locked-rotor current given" in message

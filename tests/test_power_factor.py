@@ -45,37 +45,44 @@ def test_kvar_multipliers(now, target, multiplier):
 
 
 def test_single_phase_capacitance_example():
-    # 10 kvar at 240 V, 60 Hz: C = Q/(2πf V²) = 460.5 µF (computed by hand from the textbook
-    # formula Q = 2πf C V²; 4 figures).
+    # 10 kvar at 240 V, 60 Hz: C = Q/(2πf V²) = 460.5 µF (computed by hand from Q = ωC V²,
+    # C. K. Alexander and M. N. O. Sadiku, Fundamentals of Electric Circuits, 5th ed., section
+    # 11.8 (power factor correction) — from memory; 4 figures).
     assert power_factor.capacitance_per_phase(10e3, 240, 60, "single") == pytest.approx(
         460.5e-6, rel=2e-4)
 
 
 def test_detuned_capacitor_voltage_example():
-    # 6 % reactor on 400 V: U_C = 400/(1 − 0.06) = 425.5 V (textbook example, read).
+    # 6 % reactor on 400 V: U_C = 400/(1 − 0.06) = 425.5 V — read, as worked at erbar.id, "Efek
+    # pemasangan detuned reactor pada kapasitor" (2022); the relation in J. C. Das, Power System
+    # Harmonics and Filter Design, 1st ed., Springer, 2015, passive-filter chapters — from memory.
     assert power_factor.capacitor_voltage(400, 0.06) == pytest.approx(425.5, abs=0.05)
 
 
 @pytest.mark.parametrize("p, order", [(0.05, 4.47), (0.0567, 4.20), (0.06, 4.08), (0.07, 3.78),
                                       (0.08, 3.54), (0.14, 2.67)])
 def test_tuning_orders(p, order):
-    # n = 1/√p (textbook relation; orders computed, 3 figures): 7 % → 189 Hz at 50 Hz (read).
+    # n = 1/√p (J. C. Das, Power System Harmonics and Filter Design, 1st ed., 2015 — from
+    # memory; orders computed, 3 figures). 7 % → 189 Hz at 50 Hz: read, as worked at
+    # studylib.net document 27030577, "Detuned reactor calculation".
     assert power_factor.tuning_order(p) == pytest.approx(order, abs=0.005)
 
 
 def test_seven_percent_tunes_to_189_hz_at_50_hz():
     out = values(run(frequency_hz=50, voltage=400, reactor_pct=7))
-    assert out["tuned_hz"] == pytest.approx(189, abs=0.5)  # read: "7 % → 189 Hz at 50 Hz"
+    # Read, as worked at studylib.net document 27030577: "7 % → 189 Hz at 50 Hz" (3 figures).
+    assert out["tuned_hz"] == pytest.approx(189, abs=0.5)
 
 
 def test_geometric_mean_of_third_and_fifth():
     # Tuning between the 3rd and 5th at √15 = 3.873 means X_L/X_C = 1/15 (power-quality
-    # practice, read).
+    # practice; computed from n = 1/√p).
     assert power_factor.tuning_order(1 / 15) == pytest.approx(math.sqrt(15), rel=1e-12)
 
 
 def test_transformer_dominated_resonance_form():
-    # h ≈ √(kVA_T × 100 / (%Z_T × kvar)) (textbook, from memory):
+    # h ≈ √(kVA_T × 100 / (%Z_T × kvar)) (J. C. Das, Power System Harmonics and Filter Design,
+    # 1st ed., 2015, the resonance of capacitor banks — from memory):
     # 1000 kVA, 5.75 %, 300 kvar → √(100 000 / 1725) = 7.614 (by hand).
     s_sc = power_factor.bus_short_circuit_power(1000e3, 5.75)
     assert power_factor.resonance_order(s_sc, 300e3) == pytest.approx(7.614, abs=5e-4)
@@ -299,14 +306,14 @@ def test_medium_voltage_caution():
     ({"pf_target_sense": "leading"}, "pf_target_sense", "leading target"),
     ({"xfmr_z_pct": None}, "xfmr_z_pct", "impedance"),
     ({"xfmr_kva": None}, "xfmr_kva", "rating"),
-    ({"pf_now": 0}, "pf_now", "greater than 0"),
+    ({"pf_now": 0}, "pf_now", "at least 0.01"),
     ({"pf_now": 1.2}, "pf_now", "at most 1"),
     ({"pf_target": "95 %"}, None, None),  # 95 % is read as 0.95: not an error
-    ({"power": 0}, "power", "greater than 0 kW"),
+    ({"power": 0}, "power", "at least 0.001 kW"),
     ({"voltage": "-480 V"}, "voltage", "out of range"),
     ({"voltage": "0.5 V"}, "voltage", "at least 1 V"),
     ({"phases": "2"}, "phases", "choose one of"),
-    ({"xfmr_z_pct": 0}, "xfmr_z_pct", "greater than 0 %"),
+    ({"xfmr_z_pct": 0}, "xfmr_z_pct", "at least 0.1 %"),
     ({"reactor_pct": 30}, "reactor_pct", "at most 20 %"),
     ({"source_mva": "10 kV"}, "source_mva", "apparent power"),
 ])
@@ -416,3 +423,227 @@ def test_conductor_factor_is_the_nec_multiple():
     out = values(run())
     assert out["conductor_a"] == pytest.approx(power_factor.NEC_460_8_FACTOR
                                                * out["capacitor_a"], rel=1e-12)
+
+
+# ---- issue 11, item 6: a detuned bank delivers the kvar asked --------------------------------
+
+def _delivered(out, voltage, frequency, p, connection="wye"):
+    """Reactive power [var] the bank's capacitors (the calculator's C) and their reactor give at
+    the system voltage: Q = V²/(X_C − X_L), X_L = p X_C, per wye phase (delta C is C_Y/3)."""
+    c_wye = out["c_wye"] if connection == "wye" else 3 * out["c_delta"]
+    x_c = 1 / (2 * math.pi * frequency * c_wye)
+    return voltage ** 2 / (x_c * (1 - p))
+
+
+@pytest.mark.parametrize("p_pct", [5.67, 7, 14])
+def test_issue11_detuned_bank_delivers_the_kvar_asked(p_pct):
+    # Before the fix the capacitance ignored the reactor and the bank gave Q/(1 − p): 7.5 % too
+    # much at 7 % (16 % at 14 %). The series branch X_C − X_L is exact: rel 1e-12 is rounding.
+    out = values(run(voltage=400, frequency_hz=50, reactor_pct=p_pct))
+    p = p_pct / 100
+    for connection in ("wye", "delta"):
+        assert _delivered(out, 400, 50, p, connection) == pytest.approx(out["capacitor_q"],
+                                                                        rel=1e-12)
+
+
+def test_issue11_detuned_capacitance_is_1_minus_p_of_the_plain_bank():
+    plain = values(run(voltage=400, frequency_hz=50))
+    detuned = values(run(voltage=400, frequency_hz=50, reactor_pct=7))
+    assert detuned["c_wye"] == pytest.approx(0.93 * plain["c_wye"], rel=1e-12)
+    assert detuned["c_delta"] == pytest.approx(0.93 * plain["c_delta"], rel=1e-12)
+
+
+# 80 kvar, 525 V (three-phase) capacitors with a 7 % reactor deliver 49.9 kvar on a 400 V, 50 Hz
+# supply: read, as worked at studylib.net document 27030577, "Detuned reactor calculation"
+# (80/0.93 = 86.0 kvar at 525 V, × (400/525)² = 49.9 kvar). The calculator asked for 49.9 kvar
+# there must give those capacitors: their delta capacitance 80 kvar/(3 × 2π50 × 525²) and their
+# nameplate 80 kvar at 525 V. The source prints 49.9 (3 figures): rel 1e-3.
+WORKED_Q, WORKED_RATED_Q, WORKED_RATED_V = 49.9e3, 80e3, 525.0
+
+
+def test_issue11_detuned_bank_matches_the_worked_525_v_example():
+    # pf 0.8 → 1.0 needs Q = P tan φ1 = 0.75 P: P = 49.9 kvar / 0.75.
+    out = values(run(power=WORKED_Q / 0.75 / 1e3, pf_now=0.8, pf_target=1.0, voltage=400,
+                     frequency_hz=50, reactor_pct=7, capacitor_rated_v=WORKED_RATED_V,
+                     xfmr_kva=None, xfmr_z_pct=None))
+    assert out["capacitor_q"] == pytest.approx(WORKED_Q, rel=1e-12)
+    c_delta = WORKED_RATED_Q / (3 * 2 * math.pi * 50 * WORKED_RATED_V ** 2)  # 308.0 µF
+    assert out["c_delta"] == pytest.approx(c_delta, rel=1e-3)
+    assert out["capacitor_rated_q"] == pytest.approx(WORKED_RATED_Q, rel=1e-3)
+
+
+def test_issue11_capacitor_voltage_and_own_kvar_match_the_worked_6_percent_example():
+    # 400 V, 6 %, a 50 kvar step: the capacitors run at 425.5 V and must give 53 kvar there —
+    # read, as worked at erbar.id, "Efek pemasangan detuned reactor pada kapasitor" (2022):
+    # U_C = U/(1 − p), Q_C = Q/(1 − p). Printed to 0.1 V and to the kvar.
+    out = values(run(power=50 / 0.75, pf_now=0.8, pf_target=1.0, voltage=400, frequency_hz=50,
+                     reactor_pct=6, xfmr_kva=None, xfmr_z_pct=None))
+    assert out["capacitor_q"] == pytest.approx(50e3, rel=1e-12)
+    assert out["capacitor_v"] == pytest.approx(425.5, abs=0.05)
+    assert out["capacitor_rated_q"] == pytest.approx(53e3, abs=500)
+
+
+@pytest.mark.parametrize("p_pct, voltage, frequency", [(7, 400.0, 50.0), (14, 480.0, 60.0)])
+def test_issue11_detuned_bank_draws_the_kvar_asked_in_an_ngspice_ac_analysis(p_pct, voltage,
+                                                                           frequency):
+    # One wye phase at the fundamental: V/√3 across the reactor (L = p X_C/ω) in series with the
+    # calculator's C_Y; the supply's reactive power 3 V_ph |I| must be the kvar asked. An AC
+    # analysis is one complex solve written with 15 digits: rel 1e-9.
+    out = values(run(voltage=voltage, frequency_hz=frequency, reactor_pct=p_pct))
+    p, w = p_pct / 100, 2 * math.pi * frequency
+    x_c = 1 / (w * out["c_wye"])
+    v_phase = voltage / math.sqrt(3)
+    elements = [f"V1 1 0 DC 0 AC {v_phase!r}", f"LR 1 2 {p * x_c / w!r}",
+                f"C1 2 0 {out['c_wye']!r}"]
+    sweep = spice.ac(elements, frequency, 10 * frequency, 10, ["i(V1)"])  # first point: f
+    assert sweep["frequency"][0] == pytest.approx(frequency, rel=1e-9)
+    current = abs(sweep["i(V1)"][0])
+    assert 3 * v_phase * current == pytest.approx(out["capacitor_q"], rel=1e-9)
+
+
+def test_issue11_nameplate_kvar_at_the_rated_voltage_entered():
+    # Q_r = Q_c (1 − p)(U_r/U)², computed: 480 V, 7 %, capacitors rated 600 V.
+    out = values(run(reactor_pct=7, capacitor_rated_v=600))
+    assert out["capacitor_rated_q"] == pytest.approx(out["capacitor_q"] * 0.93 * (600 / 480) ** 2,
+                                                     rel=1e-12)
+    plain = values(run(capacitor_rated_v=480))  # plain bank rated at the system voltage
+    assert plain["capacitor_rated_q"] == pytest.approx(plain["capacitor_q"], rel=1e-12)
+    assert "capacitor_rated_q" not in values(run())  # plain, no rating: nothing to say
+
+
+def test_issue11_an_entered_reactor_takes_the_resonance_off_the_harmonic():
+    # The plain barn bank sits on the 11th (warned); with a 7 % reactor the bank's resonance is
+    # h' = 3.59, so the resonance check passes and says why.
+    assert checks(run())["resonance"] == "warn"
+    detuned = run(reactor_pct=7)
+    assert checks(detuned)["resonance"] == "pass"
+    assert "7 % reactor" in check_message(detuned, "resonance")
+
+
+# ---- issue 11, item 9: plausibility ------------------------------------------------------------
+
+def test_issue11_a_bank_on_a_1_kva_transformer_is_not_a_resonance_marked_ok():
+    # The audit's case: the barn load on a 1 kVA, 5.75 % transformer. S_sc = 17.4 kVA against a
+    # 71 kvar bank: h = √(17.4/71.0) = 0.495 (by hand), ΔU ≈ 408 %. Before the fix the resonance
+    # check passed.
+    result = run(xfmr_kva=1)
+    out, status = values(result), checks(result)
+    assert out["resonance_order"] == pytest.approx(0.4948, abs=1e-4)
+    assert status["resonance"] == "warn" and "below the fundamental" in check_message(
+        result, "resonance")
+    assert status["detuned"] == "warn"
+    assert status["plausibility"] == "warn"
+    message = check_message(result, "plausibility")
+    assert "1.00 kVA transformer" in message and "short-circuit power" in message
+
+
+def _plausible(result):
+    return checks(result)["plausibility"]
+
+
+def test_issue11_defaults_and_ordinary_banks_are_plausible():
+    for inputs in ({}, {"reactor_pct": 7, "capacitor_rated_v": 525}, LOAD,
+                   {"phases": "1", "voltage": 240, "power": 20, "xfmr_kva": None,
+                    "xfmr_z_pct": None}):
+        assert _plausible(run(**inputs)) == "pass", inputs
+
+
+@pytest.mark.parametrize("share, status", [(0.99, "pass"), (1.01, "warn")])
+def test_issue11_bank_share_threshold(share, status):
+    # Q_c/S_sc lands at `share` of BANK_SHARE_MAX_PCT: h = √(100/10) = 3.16, clear of the
+    # harmonics, so only the share decides the resonance, detuned and plausibility checks.
+    result = _at_bus(BANK_Q * 100 / (pf_correction.BANK_SHARE_MAX_PCT * share))
+    found = checks(result)
+    assert found["resonance"] == found["detuned"] == found["plausibility"] == status
+    if status == "warn":
+        assert "below the fundamental" not in check_message(result, "resonance")
+
+
+@pytest.mark.parametrize("share, words", [(0.99, "below the fundamental"), (1.01, "more than")])
+def test_issue11_fundamental_order_threshold(share, words):
+    order = pf_correction.FUNDAMENTAL_ORDER * share
+    result = _at_bus(order * order * BANK_Q)
+    assert values(result)["resonance_order"] == pytest.approx(order, rel=1e-12)
+    assert checks(result)["resonance"] == "warn" and words in check_message(result, "resonance")
+
+
+@pytest.mark.parametrize("share, status", [(0.99, "pass"), (1.01, "warn")])
+def test_issue11_transformer_overload_threshold(share, status):
+    # The barn load (150 kW at 0.78 = 192.3 kVA) on a transformer that carries it at `share` of
+    # TRANSFORMER_OVERLOAD_MAX; the bank stays ~3 % of the fault level.
+    rating = 150 / 0.78 / (pf_correction.TRANSFORMER_OVERLOAD_MAX * share)
+    assert _plausible(run(xfmr_kva=rating)) == status
+
+
+@pytest.mark.parametrize("edge, share, status", [(0, 1.01, "pass"), (0, 0.99, "warn"),
+                                                 (1, 0.99, "pass"), (1, 1.01, "warn")])
+def test_issue11_transformer_impedance_range(edge, share, status):
+    z = pf_correction.TRANSFORMER_Z_RANGE_PCT[edge] * share
+    assert _plausible(run(xfmr_z_pct=z)) == status
+
+
+@pytest.mark.parametrize("edge, share, status", [(0, 1.01, "pass"), (0, 0.99, "warn"),
+                                                 (1, 0.99, "pass"), (1, 1.01, "warn")])
+def test_issue11_supply_frequency_range(edge, share, status):
+    frequency = pf_correction.SUPPLY_FREQUENCY_RANGE_HZ[edge] * share
+    assert _plausible(run(frequency_hz=frequency)) == status
+
+
+@pytest.mark.parametrize("share, status", [(1.01, "pass"), (0.99, "warn")])
+def test_issue11_supply_voltage_threshold(share, status):
+    # 20 kW single-phase without a transformer: only the voltage is out of the ordinary.
+    voltage = pf_correction.SUPPLY_VOLTAGE_MIN_V * share
+    assert _plausible(run(phases="1", power=2, voltage=voltage, xfmr_kva=None,
+                          xfmr_z_pct=None)) == status
+
+
+@pytest.mark.parametrize("share, status", [(0.99, "pass"), (1.01, "warn")])
+def test_issue11_line_current_threshold(share, status):
+    # P = √3 V I pf puts the present line current at `share` of LINE_CURRENT_MAX_A.
+    current = pf_correction.LINE_CURRENT_MAX_A * share
+    power_kw = math.sqrt(3) * 480 * current * 0.78 / 1e3
+    result = run(power=power_kw, xfmr_kva=None, xfmr_z_pct=None)
+    assert values(result)["line_a_before"] == pytest.approx(current, rel=1e-12)
+    assert _plausible(result) == status
+
+
+@pytest.mark.parametrize("share, status", [(1.01, "pass"), (0.99, "warn")])
+def test_issue11_present_power_factor_threshold(share, status):
+    assert _plausible(run(pf_now=pf_correction.PRESENT_PF_MIN * share, xfmr_kva=None,
+                          xfmr_z_pct=None)) == status
+
+
+def test_issue11_several_reasons_join_in_one_message():
+    message = check_message(run(xfmr_kva=1, frequency_hz=400), "plausibility")
+    assert "400 Hz" in message and "transformer" in message and "short-circuit" in message
+
+
+# ---- a blank target never conflicts with a typed present power factor (as issue 11, item 8) ----
+
+def test_a_blank_target_is_the_usual_one():
+    result = run()  # pf_target left blank
+    assert values(result)["capacitor_q"] == pytest.approx(
+        power_factor.capacitor_reactive_power(150e3, 0.78, pf_correction.USUAL_TARGET_PF),
+        rel=1e-12)
+    assert any("No target entered" in a for a in result["assumptions"])
+
+
+@pytest.mark.parametrize("pf_now", [pf_correction.USUAL_TARGET_PF, 0.97, 1.0])
+def test_a_present_power_factor_at_the_usual_target_is_refused_on_its_own_field(pf_now):
+    refused = errors(pf_now=pf_now)
+    assert list(refused) == ["pf_now"] and "needs no capacitors" in refused["pf_now"]
+    run(pf_now=pf_now, pf_target=1.0) if pf_now < 1.0 else None  # a typed target still works
+
+
+@pytest.mark.parametrize("name, floor", [
+    ("power", pf_correction.MIN_POWER_KW), ("pf_now", pf_correction.MIN_POWER_FACTOR),
+    ("xfmr_z_pct", pf_correction.MIN_IMPEDANCE_PCT),
+    ("xfmr_kva", pf_correction.MIN_TRANSFORMER_KVA),
+    ("source_mva", pf_correction.MIN_SOURCE_MVA), ("reactor_pct", pf_correction.MIN_REACTOR_PCT),
+])
+def test_input_floors_refuse_only_what_overflows(name, floor):
+    # Just above each floor the calculator answers (with a plausibility warning where the value
+    # is unreal); just below it the field is refused with the floor in the message.
+    assert run(**{name: floor * 1.01})["ok"]
+    refused = errors(**{name: floor * 0.99})
+    assert list(refused) == [name] and "at least" in refused[name]

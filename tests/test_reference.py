@@ -14,15 +14,28 @@ def test_every_reference_page_builds_for_both_regions(path):
         assert text.startswith("# ") and "nan" not in text.lower().split() and "inf" not in text.split()
 
 
-def test_quick_table_cell_is_the_max_length_calculator_result():
-    grid = conductor_page.longest_runs("na")["480 V three-phase"]
-    i = conductor_page.QUICK_SIZES["na"].index("10 AWG")
+@pytest.mark.parametrize("region, circuit, size, frequency, method", [
+    ("na", "480 V three-phase", "10 AWG", 60, "table"),
+    ("iec", "400 V three-phase", "4 mm²", 50, "physics")])
+def test_quick_table_cell_is_the_max_length_calculator_result(region, circuit, size, frequency,
+                                                              method):
+    # The page uses the method the calculator starts from in the region (no method given here).
+    assert conductor_page.quick_method(region) == method
+    grid = conductor_page.longest_runs(region)[circuit]
+    i = conductor_page.QUICK_SIZES[region].index(size)
     j = conductor_page.QUICK_CURRENTS_A.index(20.0)
     result = api.run("max-length", {
-        "system": "3ph", "voltage": 480, "current": 20, "size": "10 AWG", "pf": 0.9,
-        "max_drop_pct": 3, "conductor_temp_c": 75, "raceway": "pvc", "frequency_hz": 60,
-        "method": "physics"})
+        "system": "3ph", "voltage": int(circuit[:3]), "current": 20, "size": size, "pf": 0.9,
+        "max_drop_pct": 3, "conductor_temp_c": 75, "raceway": "pvc", "frequency_hz": frequency},
+        region=region)
+    assert result["ok"], result
     assert result["outputs"]["length"]["value"] == pytest.approx(grid[i, j], rel=1e-9)
+
+
+def test_quick_tables_state_their_method():
+    text = conductor_page.conductors_page(team.parse({"region": "na"}))
+    assert "conductor data by the published tables" in text
+    assert "conductor data by the physics" in text  # the IEC tables shown beside
 
 
 def test_quick_table_120_v_12_awg_20_a_is_about_fifty_feet():

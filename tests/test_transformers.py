@@ -351,7 +351,7 @@ def test_size_no_load_given():
 
 
 def test_size_two_loads_given():
-    assert "only one" in errors("transformer-size", load_a=100)["load_a"]
+    assert "only one" in errors("transformer-size", load_kva=60, load_a=100)["load_a"]
 
 
 def test_size_above_the_largest_rating():
@@ -397,7 +397,7 @@ def _motor_for_dip(dip_pct, rating, z_pct):
 def test_threshold_motor_dip_limit_holds_the_rating():
     # 60 kVA with 25 % growth takes 75 kVA; a motor dipping it by 99 % of the limit keeps it,
     # one dipping it by 101 % sizes up to the next rating, which holds the dip.
-    limit, z = transformers.MOTOR_DIP_LIMIT_PCT, 5.75
+    limit, z = transformer_size.MOTOR_DIP_LIMIT_PCT, 5.75
     limit_input = transformer_size.CALCULATOR.input("max_dip_pct")
     assert limit_input.default == limit and limit_input.help.startswith(f"{limit:g} %")
     inside = size(load_kva=60, motor_lr_kva=_motor_for_dip(0.99 * limit, 75e3, z) / 1e3)
@@ -409,7 +409,7 @@ def test_threshold_motor_dip_limit_holds_the_rating():
 
 def test_threshold_motor_dip_limit_warns_at_the_largest_rating():
     # 8 MVA with 25 % growth takes the largest list entry (10 MVA): past the limit nothing holds.
-    limit, z = transformers.MOTOR_DIP_LIMIT_PCT, 5.75
+    limit, z = transformer_size.MOTOR_DIP_LIMIT_PCT, 5.75
     largest = transformers.PREFERRED_KVA_3PH_NA[-1]
     for factor, status in ((0.99, "pass"), (1.01, "warn")):
         motor = _motor_for_dip(factor * limit, largest * 1e3, z) / 1e3
@@ -450,6 +450,22 @@ def test_reference_fault_table_is_the_infinite_bus_formula():
     for i, kva in enumerate(ratings):
         for j, z in enumerate(page.FAULT_Z_PCT):
             assert grid[i, j] == pytest.approx(kva * 1e3 / (SQRT3 * voltage) * 100 / z, rel=1e-12)
+
+
+def test_reference_mid_tap_table_is_the_line_to_line_fault_and_its_five_thirds_bound():
+    # Infinite bus: line to line I_FL × 100 / %Z (S / V, by hand); line to neutral for an
+    # all-reactance winding 2 / 1.2 = 5/3 × that (MID_TAP_X_FACTOR). X/R 10⁶ leaves R a part in
+    # 10¹² of Z, so rel 1e-9.
+    from build import team
+    from build.reference import transformers as page
+    grid = page.mid_tap_grid()
+    for i, kva in enumerate(page.MID_TAP_KVA):
+        for j, z in enumerate(page.MID_TAP_Z_PCT):
+            line_to_line = kva * 1e3 / 240 * 100 / z
+            assert grid[i, j, 0] == pytest.approx(line_to_line, rel=1e-12)
+            assert grid[i, j, 1] == pytest.approx(5 / 3 * line_to_line, rel=1e-9)
+    text = page.transformers_page(team.TeamConfig(region="iec"))
+    assert "| 37.5 | 10.4 / 17.4 | 7.81 / 13 | 6.25 / 10.4 | 5.21 / 8.68 |" in text
 
 
 def test_reference_page_builds_for_both_regions():

@@ -361,8 +361,11 @@ def circuits_page(team_config):
         "their currents.\n"
         "- A detuning reactor p = X_L/X_C makes the bank inductive above n = 1/√p × f1; its "
         "parallel resonance with the supply falls to h' = 1/√(p + (1 − p)Q_c/S_sc), below n. "
-        "The capacitors then run at U_C = U/(1 − p): rate them for it (IEEE Std 18: "
-        f"{100 * power_factor.IEEE18_RMS_VOLTAGE:g} % of rated voltage continuously).",
+        "The branch's reactance is X_C − X_L = (1 − p) X_C, so to deliver Q_c the capacitors "
+        "need (1 − p) times the plain bank's capacitance, and they run at U_C = U/(1 − p), "
+        "giving Q_c/(1 − p) there: rate them for it (IEEE Std 18: "
+        f"{100 * power_factor.IEEE18_RMS_VOLTAGE:g} % of rated voltage continuously). Capacitors "
+        "rated U_r are rated Q_r = Q_c (1 − p)(U_r/U)².",
         "kvar per kW of load (the multiplier P × (tan φ1 − tan φ2)):",
         multiplier_table(),
         "Detuning factors:",
@@ -370,7 +373,9 @@ def circuits_page(team_config):
         "Sources: Nilsson and Riedel, *Electric Circuits*, 10th ed., ch. 6–8; Alexander and "
         "Sadiku, *Fundamentals of Electric Circuits*, 5th ed., ch. 14; Ogata, *Modern Control "
         "Engineering*, 5th ed., 5-3; IEEE Std 141 (ch. 8), IEEE Std 18, IEEE Std 1531, NEC 460 — "
-        "from memory where a clause is named; the calculators list each with its flag.",
+        "from memory where a clause is named; J. C. Das, *Power System Harmonics and Filter "
+        "Design*, 1st ed., 2015, for detuned banks (from memory; the relations read in worked "
+        "examples the calculator cites); the calculators list each with its flag.",
         "",
     ])
 

@@ -59,6 +59,26 @@ def starting_rows():
     return rows
 
 
+# Rated voltages shown in the sizes-by-voltage table (NEC Table 430.250 columns and IEC 400/690 V).
+SIZE_VOLTAGES = {"na": ((115.0, "115 V"), (208.0, "200–230 V"), (460.0, "460–575 V"),
+                        (2300.0, "2300 V and up")),
+                 "iec": ((230.0, "230 V"), (400.0, "400 V"), (690.0, "690 V"),
+                         (3300.0, "3.3 kV and up"))}
+
+
+def size_rows(region):
+    """[voltage, single-phase range, three-phase range] from calc's usual_power_range."""
+    def span(voltage, phases):
+        low, high = motors.usual_power_range(voltage, phases)
+        if high == 0.0:
+            return "not made"
+        if high is None:
+            return f"from {motors.horsepower(low):.0f} hp ({low / 1e3:.4g} kW)"
+        return f"up to {motors.horsepower(high):.0f} hp ({high / 1e3:.4g} kW)"
+    return [[label, span(voltage, 1), span(voltage, 3)] for voltage, label in
+            SIZE_VOLTAGES[region]]
+
+
 def motors_page(team_config):
     region = team_config.region
     headings = [heading for _, _, heading in LR_SUPPLIES[region]]
@@ -95,6 +115,14 @@ def motors_page(team_config):
         "open-transition wye-delta and autotransformer starters draw a brief surge at the "
         "changeover. A drive's supply current at low speed is below its motor current (it "
         "draws roughly the power delivered).",
+        "## Motor sizes by rated voltage",
+        "The outputs induction motors are usually made in at each voltage: the plausibility "
+        "check of the motor calculators warns outside them. NEC Tables 430.248/430.250 list "
+        "single-phase motors to 10 hp, three-phase motors to 2 hp at 115 V, 200 hp at 200–230 V "
+        "and 500 hp at 460–575 V, and from 60 hp at 2300 V; IEC low-voltage motors are made to "
+        "about 1000 kW (NEMA MG 1 voltage ratings by size, IEC practice: common practice).",
+        markdown_table(["Rated voltage", "Single-phase", "Three-phase"], size_rows(region),
+                       "lrr"),
         "## Insulation classes",
         "The highest temperature each insulation class is rated for (IEC 60085 thermal "
         "classes; NEMA MG 1 uses the same letters) — from memory. The DC motor calculator's "

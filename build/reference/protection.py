@@ -1,5 +1,6 @@
-"""Reference: breaker trip bands, disconnection times, longest runs for the TN check, GFCI and RCD
-trip times and interrupting-rating test conditions, computed at build time from calc.protection."""
+"""Reference: breaker trip bands, the effective ground-fault path (NEC) and disconnection times
+(IEC), EGC sizes, longest runs for the fault-clearing check, GFCI and RCD trip times and
+interrupting-rating test conditions, computed at build time from calc.protection."""
 
 import numpy as np
 
@@ -116,6 +117,31 @@ def _disconnection_table():
     return markdown_table(["U0 (AC)", "TN", "TT"], rows, "lrr")
 
 
+def _egc_table():
+    rows = [[f"{rating:g} A", copper, aluminium]
+            for rating, copper, aluminium in protection.NEC_250_122]
+    return markdown_table(["Device rating, not exceeding", "Copper", "Aluminium"], rows, "lrr")
+
+
+def _nec_section():
+    ratings = ", ".join(f"{r:g}" for r in protection.NEC_STANDARD_RATINGS_A)
+    return ["## Effective ground-fault current path (NEC)",
+            "NEC 250.4(A)(5) asks for a ground-fault path of impedance low enough to operate the "
+            "overcurrent device; it sets no disconnection time. Fluxbook judges it as the fault "
+            "current at the far end, U0 / Zs, reaching the current that surely operates the "
+            "instantaneous trip: the magnetic pickup with its tolerance (± "
+            f"{protection.MCCB_TOLERANCE_PCT:g} % unless the maker says), the setting of an "
+            "instantaneous-trip breaker, or a fuse's quick-melting multiple "
+            f"({protection.FUSE_CLEARING_MULTIPLE:g} × its rating, common practice). The EGC "
+            "must also be no smaller than Table 250.122, and larger where needed for that path "
+            "(the table's note).",
+            "### Minimum EGC (NEC Table 250.122)", _egc_table(),
+            "Source: NEC Table 250.122 (read, as reproduced by Bruns Engineering). 250.122(A): "
+            "never required larger than the circuit conductors.",
+            f"Standard ampere ratings (NEC 240.6(A), read, as reproduced in EC&M, 2019, and in "
+            f"urdans/eecalcs OCPD.java): {ratings} A."]
+
+
 def _ul943_table():
     rows = [[f"{ma:g} mA", f"{t:.3g} s"] for ma, t in zip(UL943_TABLE_MA, ul943_times())]
     return markdown_table(["Ground-fault current", "Greatest trip time"], rows)
@@ -172,15 +198,19 @@ def protection_page(team_config):
              f"ratings: {', '.join(str(r) for r in protection.MCB_PREFERRED_RATINGS_A)} A "
              "(read)."]
     parts += (mccb + mcb) if region == "na" else (mcb + mccb)
-    parts += ["## Maximum disconnection times (IEC 60364-4-41 Table 41.1)",
+    nec = _nec_section()
+    parts += nec if region == "na" else []
+    parts += ["## Maximum disconnection times, IEC practice (IEC 60364-4-41 Table 41.1)",
               _disconnection_table(),
               f"Final circuits up to {protection.TABLE_41_1_MAX_RATING_A:g} A (411.3.2.2, 2005 "
               "edition; AMD1:2017 and BS 7671:2018 extend it to 63 A socket-outlet circuits). "
               f"Distribution circuits: {tn} in TN (411.3.2.3, read), {tt} in TT (411.3.2.4, from "
               "memory). TN condition Zs × Ia ≤ U0; TT condition R_A × IΔn ≤ 50 V (411.5.3). "
-              "Source: IEC 60364-4-41 (read as quoted).",
-              "## Longest run for the TN check",
-              "Where Zs = Ze + (R1 + R2) × L reaches U0 / Ia; R1 + R2 from IEC 60228 / NEC "
+              "Source: IEC 60364-4-41 (read, as quoted at ericmark.talktalk.net/41-1.html).",
+              *([] if region == "na" else nec),
+              "## Longest run for the fault to operate the instantaneous trip",
+              "Where Zs = Ze + (R1 + R2) × L reaches U0 / Ia (the NEC effective-path judgement "
+              "and the IEC TN condition alike); R1 + R2 from IEC 60228 / NEC "
               "Chapter 9 Table 8 at the stated temperature, reactance included. \"none\" means "
               "Ze alone is too high for that breaker.",
               _longest_run_table(region), _longest_run_table(other).replace("### ", "### Also: "),
@@ -193,11 +223,14 @@ def protection_page(team_config):
               "## RCD break times (IEC 61008-1 / IEC 61009-1)", _rcd_table(),
               f"An RCD must not trip at {protection.RCD_NO_TRIP_FRACTION * 100:g} % of IΔn. "
               f"{additional} devices give additional protection (IEC 60364-4-41 415.1.1). Type S "
-              f"are made for IΔn above {additional}. Source: IEC 61008-1 / 61009-1 (from "
-              "memory).",
+              f"are made for IΔn above {additional}. Source: IEC 61008-1 / 61009-1, the "
+              "greatest times read, as reproduced in the BS EN 61008-1 / 61009-1 table quoted "
+              "at html.pdfcookie.com/…/rvr7mmqer72o.html, with 415.1.1; type S least times, "
+              "the 50 % no-trip and the type S ratings from memory.",
               "## Interrupting ratings: the X/R of the test",
-              "A UL 489 interrupting rating holds up to the X/R of its test circuit (from "
-              "memory). Where the available fault current has a higher X/R (close to large "
+              "A UL 489 interrupting rating holds up to the X/R of its test circuit (test power "
+              "factors read, as reproduced in TSEWG TP-6 Table 1, studylib.net/doc/12093578). "
+              "Where the available fault current has a higher X/R (close to large "
               "transformers), the effective rating is lower: apply the maker's multiplying "
               "factor. IEC 60947-2 uses similar test power factors.", _interrupting_table()]
     return "\n\n".join(parts) + "\n"

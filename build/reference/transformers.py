@@ -26,6 +26,12 @@ FAULT_TABLES = {"na": (480.0, (3, 75, 150, 300, 500, 750, 1000, 1500, 2000, 2500
                 "iec": (400.0, (100, 160, 250, 400, 630, 800, 1000, 1250, 1600, 2000, 2500))}
 FAULT_Z_PCT = (2.0, 3.0, 4.0, 5.0, 5.75, 6.0, 7.0)
 PRIMARY_V = 13800.0  # the primary does not change an infinite-source fault; named for the path
+# Single-phase pole and pad units with a 120/240 V mid-tapped secondary: preferred ratings [kVA]
+# and their usual %Z, about 1.5-3 % (common practice). The line-to-neutral column takes an all-reactance winding (X/R 10⁶), its largest: 2 / 1.2 = 5/3 ×
+# the line-to-line fault (calc.transformers.MID_TAP_X_FACTOR).
+MID_TAP_KVA = (10, 15, 25, 37.5, 50, 75, 100, 167)
+MID_TAP_Z_PCT = (1.5, 2.0, 2.5, 3.0)
+MID_TAP_X_R = 1e6
 
 TOLERANCE_PCT = 100 * transformers.IMPEDANCE_TOLERANCE  # 7.5 % of the nameplate %Z
 # How much more fault current a unit at the low end of its impedance tolerance gives [%].
@@ -89,6 +95,23 @@ def _fault_table(region):
             for kva, row in zip(ratings, fault_grid(region))]
     return (f"### {_volts(voltage)} three-phase secondary, kA\n\n"
             + markdown_table(["kVA"] + [f"{z:g} %" for z in FAULT_Z_PCT], rows))
+
+
+def mid_tap_grid():
+    """Array [rating, %Z, 2] of infinite-source faults [A] at a 120/240 V mid-tapped secondary:
+    line to line, and line to neutral at its bound for an all-reactance winding (the largest)."""
+    return np.array([[[level.fault_current, level.line_to_neutral_current]
+                      for level in (transformers.secondary_fault(kva * 1e3, 7200.0, 240.0, 1, z,
+                                                                 MID_TAP_X_R, mid_tap=True)
+                                    for z in MID_TAP_Z_PCT)]
+                     for kva in MID_TAP_KVA])
+
+
+def _mid_tap_table():
+    rows = [[f"{kva:g}", *[f"{ll / 1e3:.3g} / {ln / 1e3:.3g}" for ll, ln in row]]
+            for kva, row in zip(MID_TAP_KVA, mid_tap_grid())]
+    return ("### 120/240 V single-phase (mid-tapped), kA line to line / line to neutral\n\n"
+            + markdown_table(["kVA"] + [f"{z:g} %" for z in MID_TAP_Z_PCT], rows))
 
 
 def _category_table():
@@ -287,6 +310,14 @@ def transformers_page(team_config):
         f"its −{TOLERANCE_PCT:g} % impedance tolerance gives {LOW_Z_GAIN_PCT:.0f} % more.",
         _fault_table(region),
         _fault_table(other).replace("### ", "### Also: "),
+        "On a single-phase 120/240 V secondary the fault from one line to the neutral drives "
+        "half the winding and is the larger one: 4/3 (a resistive winding) to 5/3 (a reactive "
+        "one) × the line-to-line fault. The table gives its upper bound; the fault-current "
+        "calculator estimates it from %Z and X/R with the half-winding impedance "
+        f"{transformers.MID_TAP_R_FACTOR:g} × %R + j{transformers.MID_TAP_X_FACTOR:g} × %X "
+        "(the point-to-point method's Note 2, read as reproduced at scribd.com/document/"
+        "388329023).",
+        _mid_tap_table(),
         f"## No-load taps (± {transformers.TAP_STEPS} × {transformers.TAP_STEP_PCT:g} %)",
         _tap_table(),
         "A tap is named by the primary voltage it suits. On a rated supply, a minus tap raises "

@@ -12,5 +12,4 @@ def require_table_conductor(field, size, material):
     if conductors.table_resistance(size, material) is None:
         name = conductors.MATERIAL_NAMES[material]
         raise InputError(field, size.label, f"{size.label} {name} has no published resistance "
-                         "(NEC Chapter 9 Table 8 lists aluminium from 14 AWG); choose a larger "
-                         "size or copper")
+                         "in NEC Chapter 9 Table 8 or IEC 60228; choose another size")

@@ -1,8 +1,10 @@
 """View helpers and texts the transformer calculators share: the ideal-transformer steps every
-result carries, the rating, voltage and connection inputs, and picking the one load field given.
+result carries, the rating, voltage and connection inputs, picking the one load field given, and
+the range of real transformers that the plausibility checks hold inputs to.
 """
 
 from calc import cautions, transformers
+from calc.calculators._plausibility import outside
 from calc.errors import InputError
 from calc.spec import Input
 from calc.units import format_quantity as fq
@@ -22,6 +24,74 @@ CONNECTION_LABELS = {
 CONNECTIONS = tuple((name, CONNECTION_LABELS[name]) for name in transformers.WINDING_CONNECTIONS)
 
 Z_PCT_MAX = 30  # the largest nameplate impedance the forms accept [%]
+
+# ---- the range of real transformers (the plausibility check) ------------------------------------
+# Nameplate %Z of real two-winding units: about 1.5-2 % for small dry-types to 15-20 % for large
+# power transformers (common practice; IEC 60076-5 Table 1 asks at least 4-8 % by rating).
+Z_PCT_RANGE = (0.5, 20.0)
+# The lowest winding voltage of power transformers: 12 V (control, lighting and buck-boost
+# secondaries; common practice). Below it a "transformer" is an electronics part.
+WINDING_V_MIN = 12.0
+# The lowest public supply voltage: 100 V (Japan) less 10 % (IEC 60038 tolerance; from memory).
+SUPPLY_V_MIN = 90.0
+# Windings above a voltage are built from a smallest rating up: (above [V], smallest [kVA]).
+# Above 1 kV, medium-voltage control-power units start at about 1 kVA (smaller ones are instrument
+# transformers); above 36 kV (the top of the distribution class, IEC 60076 / IEEE C57.12), the
+# smallest are station-service units of about 50 kVA. Common practice (from memory).
+SMALLEST_KVA_ABOVE_V = ((transformers.LOW_VOLTAGE_LIMIT_V, 1.0), (36_000.0, 50.0))
+# The largest current of a low-voltage winding [A]: low-voltage switchboard and switchgear mains
+# reach 5000-6000 A (UL 891, IEEE C37.20.1; from memory), so larger loads are split between
+# transformers or served at a higher voltage.
+LV_WINDING_CURRENT_MAX_A = 6000.0
+# A load beyond 150 % of rating exceeds the loading guides' emergency limits (IEEE C57.91, IEC
+# 60076-7: 150 % for distribution transformers, from memory).
+LOAD_PCT_MAX = 150.0
+
+
+def smallest_rating(voltage):
+    """The smallest usual rating [VA] of a transformer with a winding at `voltage` [V] (0 when
+    any size is built)."""
+    smallest = 0.0
+    for above, kva in SMALLEST_KVA_ABOVE_V:
+        if voltage > above:
+            smallest = kva * 1e3
+    return smallest
+
+
+def equipment_reasons(apparent_power, phases, windings, z_pct=None):
+    """Reasons, for the plausibility check, that a transformer of `apparent_power` [VA] with these
+    `windings` [(name, voltage [V])] and nameplate `z_pct` [%] is not real equipment."""
+    reasons = []
+    rating = fq(apparent_power, "VA")
+    for name, voltage in windings:
+        volts = fq(voltage, "V")
+        if voltage < WINDING_V_MIN:
+            reasons.append(f"the {name} of {volts} is below any power transformer winding (from "
+                           f"{WINDING_V_MIN:g} V, common practice)")
+        smallest = smallest_rating(voltage)
+        if apparent_power < smallest:
+            reasons.append(f"a {rating} transformer with a {volts} {name}: windings at this "
+                           f"voltage are built for {fq(smallest, 'VA')} and up (common practice); "
+                           "check the rating and the voltage")
+        current = transformers.rated_current(apparent_power, voltage, phases)
+        if voltage <= transformers.LOW_VOLTAGE_LIMIT_V and current > LV_WINDING_CURRENT_MAX_A:
+            reasons.append(f"{rating} at {volts} is {fq(current, 'A')} in the {name}: low-voltage "
+                           f"windings and switchboards are built for up to about "
+                           f"{fq(LV_WINDING_CURRENT_MAX_A, 'A')} (UL 891, IEEE C37.20.1, from "
+                           "memory); split the load or use a higher voltage")
+    if z_pct is not None and outside(z_pct, *Z_PCT_RANGE):
+        reasons.append(f"an impedance of {z_pct:g} % is outside the {Z_PCT_RANGE[0]:g}-"
+                       f"{Z_PCT_RANGE[1]:g} % of real transformers (common practice); check the "
+                       "nameplate")
+    return reasons
+
+
+def load_reason(load_pct, what="the load"):
+    """The reason, if any, that a load [% of rating] is beyond the loading guides."""
+    if load_pct > LOAD_PCT_MAX:
+        return (f"{what} of {load_pct:g} % of rating is beyond the {LOAD_PCT_MAX:g} % emergency "
+                "limit of the loading guides (IEEE C57.91, IEC 60076-7; from memory)")
+    return None
 
 
 def rating_input(**overrides):

@@ -7,6 +7,7 @@ Physics in calc.dc_motors; this module holds the spec, the view, its checks and 
 
 from calc import cautions
 from calc import dc_motors as dc
+from calc.calculators._plausibility import outside, plausibility
 from calc.errors import InputError
 from calc.spec import Calculator, Input, Output, Result
 from calc.units import format_quantity as fq
@@ -28,6 +29,16 @@ CHART_POINTS = 301
 # load's own steady current must sit below it by this margin or the starter would wait forever.
 SWITCH_MARGIN = 1.05
 PEAK_SLACK = 1.001  # the simulation's peak may pass the starter limit by this before a warning
+
+# Plausibility: the range of real DC motors (all common practice). Base speeds run from about
+# 50 r/min (large rolling-mill motors) to about 20 000 r/min (small permanent-magnet motors);
+# supplies from 3 V (small PM motors) to 1500 V (traction and mill motors); the largest DC
+# motors are about 10 MW. A motor with its load takes at least about 10 ms to run up (small
+# servo motors unloaded); a shorter run-up means the inputs describe no real machine.
+SPEED_RANGE_RPM = (50.0, 20000.0)
+VOLTAGE_RANGE_V = (3.0, 1500.0)
+LARGEST_POWER_W = 10e6
+SHORTEST_RUN_UP_S = 0.01
 
 
 def _time_to_share(times, values, target):
@@ -218,6 +229,7 @@ def _back_emf_view(inputs):
     _starting_dc(inputs, result, voltage, r_a, rated_a)
     _simulate(inputs, result, model, armature_a, rated_a, speed, reference)
 
+    _plausibility(inputs, result, rated_a)
     result.assumptions += [
         "Armature current is the line current less the shunt field current (when the field "
         "resistance is given; otherwise the field current is neglected). Brush drop is taken "
@@ -243,6 +255,34 @@ def _back_emf_view(inputs):
     ]
     result.cautions += list(cautions.COMMON)
     return result
+
+
+def _plausibility(inputs, result, rated_a):
+    """The motor's speed, voltage and size and the run-up against those of real DC motors."""
+    reasons = []
+    low, high = SPEED_RANGE_RPM
+    if outside(inputs["speed_ref"], low, high):
+        reasons.append(f"a known speed of {inputs['speed_ref']:g} r/min is outside the {low:g}–"
+                       f"{high:g} r/min of real DC motors (common practice): with it the torque "
+                       "is "
+                       f"{result.outputs['torque'][0]:.4g} N·m for "
+                       f"{fq(result.outputs['developed_power_w'][0], 'W')}")
+    low, high = VOLTAGE_RANGE_V
+    if outside(inputs["voltage"], low, high):
+        reasons.append(f"{fq(inputs['voltage'], 'V')} is outside the {fq(low, 'V')} to "
+                       f"{fq(high, 'V')} DC motors are built for (common practice)")
+    rated_power = inputs["voltage"] * rated_a
+    if rated_power > LARGEST_POWER_W:
+        reasons.append(f"{fq(inputs['voltage'], 'V')} × {fq(rated_a, 'A')} = "
+                       f"{fq(rated_power, 'W')} is above the largest DC motors, about "
+                       f"{fq(LARGEST_POWER_W, 'W')} (common practice)")
+    for name in ("run_up_s", "run_up_starter_s"):
+        run_up = result.outputs.get(name, (None,))[0]
+        if run_up is not None and run_up < SHORTEST_RUN_UP_S:
+            reasons.append(f"a run-up in {fq(run_up, 's')} is shorter than any real motor and "
+                           f"load take (at least about {fq(SHORTEST_RUN_UP_S, 's')}: common "
+                           "practice); check the inertia, the speed and the current")
+    plausibility(result, reasons)
 
 
 def _starting_dc(inputs, result, voltage, r_a, rated_a):

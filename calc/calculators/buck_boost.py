@@ -2,8 +2,11 @@
 lowers this supply to the voltage wanted, what must it be rated, and is the connection allowed?"""
 
 from calc import cautions, transformers
+from calc.calculators._plausibility import plausibility
 from calc.calculators._transformers import (
+    LV_WINDING_CURRENT_MAX_A,
     SOURCE_IDEAL,
+    SUPPLY_V_MIN,
     ideal_relations,
     next_standard_rating,
     the_one_given,
@@ -18,12 +21,18 @@ BANKS = (
     ("wye", "Three-phase four-wire wye: three units, neutral connected"),
     ("open-delta", "Three-phase: two units in open delta"),
 )
+# Units in a bank: one single-phase, three in a four-wire wye, two in open delta.
+BANK_UNITS = {"single": 1, "wye": 3, "open-delta": 2}
 EXCITATION_PCT = 100 * transformers.EXCITATION_LIMIT  # 105 %
 LARGEST_UNIT_KVA = transformers.BUCK_BOOST_KVA[-1]
 
 # An output this close to the target is taken as the target; beyond it the equipment's own
 # tolerance or a tapped transformer decides (common practice).
 TARGET_TOLERANCE_PCT = 2.5
+
+# The largest change a standard combination makes: both secondaries in series over one primary
+# half-winding, ± 2 × 16 / 120 = 26.7 % (from BUCK_BOOST_WINDINGS).
+REACH_PCT = 100 * max(2 * series / shunt for _, shunt, series in transformers.BUCK_BOOST_WINDINGS)
 
 # NEC 210.9 and 215.11 (from memory) name their exceptions by nominal system: a voltage within
 # 5 % of a nominal one counts as that system, and 220-250 V as the 240 V class (common practice).
@@ -132,10 +141,27 @@ def _steps(result, bank, winding_v, winding_target, options, best, output_v):
                 + (f" ({fq(output_v, 'V')} line-to-line)" if bank == "wye" else ""))
 
 
+def _plausibility(result, supply_v, target_v, load_a):
+    reasons = []
+    if supply_v < SUPPLY_V_MIN:
+        reasons.append(f"a supply of {fq(supply_v, 'V')} is below any public supply (from "
+                       f"{SUPPLY_V_MIN:g} V: 100 V less 10 %, IEC 60038; from memory)")
+    change = abs(target_v / supply_v - 1.0) * 100.0
+    if change > REACH_PCT:
+        reasons.append(f"a change of {change:.3g} % is beyond any buck-boost connection (the "
+                       f"standard windings reach ± {REACH_PCT:.3g} %); use an insulating "
+                       "transformer wound for the voltages")
+    if load_a > LV_WINDING_CURRENT_MAX_A:
+        reasons.append(f"a load current of {fq(load_a, 'A')} is beyond low-voltage equipment "
+                       f"(up to about {fq(LV_WINDING_CURRENT_MAX_A, 'A')}; UL 891, IEEE C37.20.1, "
+                       "from memory)")
+    plausibility(result, reasons)
+
+
 def _buck_boost_view(inputs):
     supply_v, target_v, bank = inputs["supply_v"], inputs["target_v"], inputs["bank"]
     neutral = inputs["neutral"]
-    units = transformers.BANK_UNITS[bank]
+    units = BANK_UNITS[bank]
     per_unit = SQRT3 if bank == "wye" else 1.0  # a wye unit sits line-to-neutral
     winding_v, winding_target = supply_v / per_unit, target_v / per_unit
     options, best = _choose(winding_v, winding_target, supply_v)
@@ -198,6 +224,8 @@ def _buck_boost_view(inputs):
                      f"{LARGEST_UNIT_KVA:g} kVA); use larger units made for it or an insulating "
                      "transformer.")
 
+    _plausibility(result, supply_v, target_v, load_a)
+
     windings = "; ".join(name for name, _, _ in transformers.BUCK_BOOST_WINDINGS)
     result.assumptions += [
         f"Standard buck-boost units ({windings}; common practice); an ideal autotransformer (no "
@@ -240,9 +268,9 @@ CALCULATOR = Calculator(
               help="Yes when the grounded conductor runs to the autotransformer (needed for a "
                    "wye bank)."),
         Input("load_kva", "Load", "quantity", unit="kVA", default=5, optional=True, minimum=0.001,
-              maximum=10_000),
+              maximum=10_000, group="load"),
         Input("load_a", "Or load current", "quantity", unit="A", optional=True, minimum=0.001,
-              maximum=10_000, help="At the output; the kVA field blank."),
+              maximum=10_000, help="At the output; the kVA field blank.", group="load"),
     ),
     outputs=(
         Output("output_v", "Output voltage", "V"),

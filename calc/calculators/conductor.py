@@ -10,7 +10,13 @@ import math
 
 from calc import cautions, conductors, units
 from calc.calculators import _inputs
-from calc.calculators._conductors import conductor_fields
+from calc.calculators._conductors import (
+    basis_text,
+    conductor_data_check,
+    conductor_fields,
+    method_input,
+)
+from calc.calculators._plausibility import plausibility
 from calc.conductors import (
     ALPHA_20C,
     GMR_FRACTION,
@@ -22,7 +28,9 @@ from calc.conductors import (
     SKIN_X_LIMIT,
     STEEL_CONDUIT_AC_FACTOR,
     STEEL_CONDUIT_X_FACTOR,
+    TABLE9_BASIS,
     TABLE9_FREQUENCY_HZ,
+    TABLE9_TEMPERATURE_C,
 )
 from calc.spec import Calculator, Input, Output, Result
 from calc.units import format_quantity as fq
@@ -36,6 +44,13 @@ TABLE8_AGREEMENT = 0.03
 # Z at 0.85 pf from the geometric X against Z from Table 9's XL: warn beyond 5 % (a margin chosen
 # here, about the rounding of Table 9's two-figure Z column).
 TABLE9_Z_AGREEMENT = 0.05
+# Plausibility: the highest continuous rating of common building wire and 0.6/1 kV cable, 90 °C
+# (NEC Table 310.4(A) types THHN, XHHW-2, RHH; IEC 60502-1 XLPE — from memory): above it only
+# special insulations run (or a conductor carrying fault current). And the widest axial spacing
+# of low-voltage conductors: 1 m (common practice: open LV lines about 0.2 to 0.6 m).
+PLAUSIBLE_TEMPERATURE_C = 90.0
+PLAUSIBLE_SPACING_M = 1.0
+FORMATION_WORDS = {"trefoil": "trefoil", "cradled": "cradled in conduit", "flat": "flat"}
 CHART_POINTS = 28  # temperature segments of the resistance chart
 CHART_TEMPERATURES_C = (-20.0, 120.0)  # the chart's span, widened to include the input
 
@@ -43,13 +58,17 @@ SOURCES = (
     "Resistivity and α: IEC 60028 (copper, 1/58 Ω·mm²/m, 0.00393 /K; read, as reproduced in "
     "Agrawal, Industrial Power Engineering and Applications Handbook, Table 30.1); IEC 60889 "
     "(aluminium 1350, 0.028264 Ω·mm²/m, 0.00403 /K) — from memory.",
-    "NEC Chapter 9 Table 8 (DC resistance at 75 °C) and Table 9 (AC resistance and "
-    "reactance, 60 Hz, 75 °C); IEC 60228 Tables 1 and 2 and Annex B.",
+    "NEC Chapter 9 Table 8 (DC resistance at 75 °C; read, as reproduced) and Table 9 (AC "
+    "resistance and reactance, three conductors in conduit, 60 Hz, 75 °C; every row read, as "
+    "reproduced in a cable maker's engineering data sheet and checked against two other "
+    "reproductions; its note 1 basis, RHH conductors cradled, from memory); IEC 60228 Tables 1 "
+    "and 2 (read, as reproduced) and Annex B.",
     "Skin and proximity effect: IEC 60287-1-1 clauses 2.1.2 and 2.1.4 — from memory.",
     "GMR and X = 2πf 2×10⁻⁷ ln(GMD/GMR): Glover, Sarma & Overbye, Power System Analysis "
     "and Design, 5th ed., section 4.5, Table A.3 — from memory.",
-    "Insulation thickness for touching conductors: UL 83 (THHN), IEC 60502-1 (PVC) — "
-    "from memory.",
+    "Insulation thickness for touching conductors: UL 83 (THHN), UL 44 (RHH), IEC 60502-1 "
+    "(PVC, XLPE) — from memory; XHHW-2: ICEA S-95-658 column B, read, as reproduced in a "
+    "distributor's data sheet.",
 )
 CAUTION_AMPACITY = (
     "Ampacity, the insulation's temperature rating, termination ratings and derating for "
@@ -63,14 +82,15 @@ def _per_length(value, metric):
     return f"{km} ({kft})" if metric else f"{kft} ({km})"
 
 
-def _geometry_text(size, raceway, spacing_m, spacing):
-    """How the axial spacing was found: given, or touching insulated conductors."""
-    if spacing_m is not None:
-        return f"given axial spacing {fq(spacing, 'm')} (trefoil)"
-    insulation = "PVC (IEC 60502-1)" if size.system == "mm2" else "THHN"
-    where = "in the raceway" if raceway != "none" else "(no spacing given)"
-    return (f"touching conductors {where}: typical {insulation} outer diameter "
-            f"{fq(spacing, 'm')} (trefoil)")
+def _geometry_text(inputs, z):
+    """The geometry of the reactance: insulation, formation and how the spacing was found."""
+    insulation = dict(conductors.INSULATIONS)[z.insulation].split(" (")[0]
+    formation = FORMATION_WORDS[z.formation]
+    if inputs["spacing_m"] is not None:
+        return f"{formation}, {z.spacing * 1e3:.4g} mm apart (given)"
+    basis = (": NEC Chapter 9 Table 9's own basis" if (z.insulation, z.formation)
+             == (TABLE9_BASIS["insulation"], TABLE9_BASIS["formation"]) else "")
+    return f"{formation}, touching {insulation}, {z.spacing * 1e3:.4g} mm across{basis}"
 
 
 def _steps(result, inputs, z, z_085, area_display, metric):
@@ -98,18 +118,32 @@ def _steps(result, inputs, z, z_085, area_display, metric):
         result.step(f"Proximity effect (IEC 60287-1-1 2.1.4), d_c = {fq(z.diameter, 'm')}, "
                     f"s = {fq(z.spacing, 'm')}",
                     "y_p = F (d_c/s)² [0.312 (d_c/s)² + 1.18 / (F + 0.27)]", f"y_p = {z.y_p:.3g}")
+        ac_factor = STEEL_CONDUIT_AC_FACTOR if raceway == "steel" else 1.0
+        model = z.r_dc * (1 + ac_factor * (z.y_s + z.y_p))
         steel = f" × {STEEL_CONDUIT_AC_FACTOR} (steel conduit)" if raceway == "steel" else ""
-        result.step("AC resistance", "R_ac = R_dc [1 + k (y_s + y_p)]",
+        result.step("AC resistance with the skin and proximity effect",
+                    "R_ac = R_dc [1 + k (y_s + y_p)]",
                     f"= {_per_length(z.r_dc, metric)} × [1 + ({z.y_s:.3g} + {z.y_p:.3g}){steel}] "
-                    f"= {_per_length(z.r_ac, metric)}")
-        if inputs["method"] == "table" and z.x_table9 is not None:
-            result.step("Series reactance from NEC Chapter 9 Table 9 (method table)",
-                        f"X = XL_Table9 × f / {TABLE9_FREQUENCY_HZ:g} Hz",
+                    f"= {_per_length(model, metric)}")
+        if z.r_ac_basis == "table9":
+            where = f", {z.table_note}" if z.table_note else ""
+            result.step(f"AC resistance from NEC Chapter 9 Table 9 ({raceway} conduit{where}): "
+                        "its two-figure value differs from the line above by more than its "
+                        "rounding, so the table's stands, moved to this temperature and frequency",
+                        f"R_ac = R_ac,9 × R_ac(T, f) / R_ac({TABLE9_TEMPERATURE_C:g} °C, "
+                        f"{TABLE9_FREQUENCY_HZ:g} Hz)",
+                        f"= {_per_length(z.r_ac_table9, metric)} × "
+                        f"{z.r_ac / z.r_ac_table9:.4g} = {_per_length(z.r_ac, metric)}")
+        if z.x_basis == "table9":
+            where = f" ({z.table_note})" if z.table_note else ""
+            result.step(f"Series reactance from NEC Chapter 9 Table 9{where} (method table)",
+                        f"X = XL_9 × f / {TABLE9_FREQUENCY_HZ:g} Hz",
                         f"= {_per_length(z.x, metric)}")
         steel_x = f" × {STEEL_CONDUIT_X_FACTOR}" if raceway == "steel" else ""
         strands = conductors.strand_count(size)
-        result.step(f"Series reactance: GMR = {GMR_FRACTION[strands]:.4g} r ({strands} strands) "
-                    f"= {z.gmr * 1e3:.4g} mm; GMD = {z.gmd * 1e3:.4g} mm",
+        result.step(f"Series reactance from the geometry ({_geometry_text(inputs, z)}): GMR = "
+                    f"{GMR_FRACTION[strands]:.4g} r ({strands} strands) = {z.gmr * 1e3:.4g} mm; "
+                    f"GMD = {z.gmd * 1e3:.4g} mm",
                     "X = 2πf × 2×10⁻⁷ × ln(GMD / GMR)" + steel_x,
                     f"= 2π × {frequency:g} Hz × 2×10⁻⁷ × ln({z.gmd * 1e3:.4g} / "
                     f"{z.gmr * 1e3:.4g}){steel_x} = {_per_length(z.x_geometry, metric)}")
@@ -155,39 +189,53 @@ def _checks(result, inputs, z, metric):
         used = "Table 9's XL is used (method table)" if method == "table" else (
             "the geometric X is used; choose method table to use Table 9's")
         status = "pass" if method == "table" or abs(effect) <= TABLE9_Z_AGREEMENT else "warn"
+        where = f", {z.table_note}" if z.table_note else ""
         result.check("table9_reactance", status,
                      f"NEC Chapter 9 Table 9 lists XL = {_per_length(z.x_table9, metric)} "
-                     f"(scaled to {frequency:g} Hz); touching-conductor geometry gives "
-                     f"{_per_length(z.x_geometry, metric)} ({z.x_geometry / z.x_table9 - 1:+.0%})"
-                     ". Table 9 assumes RHH conductors in cradled configuration. Effect on Z at "
+                     f"(scaled to {frequency:g} Hz{where}); the geometry "
+                     f"({_geometry_text(inputs, z)}) gives {_per_length(z.x_geometry, metric)} "
+                     f"({z.x_geometry / z.x_table9 - 1:+.0%}). Table 9's basis is RHH conductors "
+                     "in cradled configuration (its note 1); on that basis the geometry is about "
+                     "20 % below every row. Effect on Z at "
                      f"{POWER_FACTOR_NEC:g} pf: {effect:+.1%} (warn beyond "
                      f"{TABLE9_Z_AGREEMENT * 100:g} % if the geometry is used); {used}. For NEC "
                      "voltage drop Table 9 is the usual basis.")
+    conductor_data_check(result, method, z)
+    reasons = []
+    if inputs["temperature_c"] > PLAUSIBLE_TEMPERATURE_C:
+        reasons.append(f"{fq(inputs['temperature_c'], 'degC')} is above the "
+                       f"{PLAUSIBLE_TEMPERATURE_C:g} °C that building wire and 0.6/1 kV cable "
+                       "run at continuously (only special insulations, or fault current)")
+    if inputs["spacing_m"] is not None and inputs["spacing_m"] > PLAUSIBLE_SPACING_M:
+        reasons.append(f"an axial spacing of {fq(inputs['spacing_m'], 'm')} is wider than "
+                       f"low-voltage conductors are run (up to about {PLAUSIBLE_SPACING_M:g} m)")
+    plausibility(result, reasons)
 
 
 def _describe(result, inputs, z, metric):
     size, raceway = inputs["size"], inputs["raceway"]
-    geometry = _geometry_text(size, raceway, inputs["spacing_m"], z.spacing)
     result.assumptions += [
         f"Concentric stranded {MATERIAL_NAMES[inputs['material']]} conductor, "
         f"{conductors.strand_count(size)} strands "
         + ("(IEC 60228 Class 2)." if metric else "(ASTM B8 Class B)."),
         f"Lay (stranding) factor {LAY_FACTOR_STRANDED} on ρ/A (common practice).",
-        f"Three phase conductors in trefoil; {geometry}. A flat formation has "
-        "GMD = 1.26 × spacing.",
+        f"Three phase conductors, {_geometry_text(inputs, z)}; insulation thickness nominal "
+        "for the type. Cradled: in a row along the bottom of a conduit "
+        f"{conductors.CRADLE_CONDUIT_RATIO:g} × their diameter wide.",
+        f"Method {inputs['method']}: {basis_text(z)}.",
         "Temperature is the conductor temperature; resistance is linear in temperature with "
         "the stated α.",
     ]
     if raceway == "steel":
         result.assumptions.append(
-            f"Steel conduit: X × {STEEL_CONDUIT_X_FACTOR} (NEC Chapter 9 Table 9 steel vs PVC "
-            f"columns, from memory) and (y_s + y_p) × {STEEL_CONDUIT_AC_FACTOR} (IEC 60287-1-1 "
-            "pipe-type cables, from memory).")
+            f"Steel conduit, for the geometry: X × {STEEL_CONDUIT_X_FACTOR} (NEC Chapter 9 "
+            "Table 9's steel over PVC columns, 1.22 to 1.27 in every row, read) and (y_s + y_p) "
+            f"× {STEEL_CONDUIT_AC_FACTOR} (IEC 60287-1-1 pipe-type cables, from memory).")
     if raceway == "aluminum":
         result.assumptions.append(
-            "Aluminium conduit is non-magnetic: treated as PVC. NEC Table 9 lists slightly "
-            "higher AC resistance in aluminium conduit for large sizes (induced conduit "
-            "currents); that is not modelled.")
+            "Aluminium conduit is non-magnetic: the physics treats it as PVC. NEC Table 9 lists "
+            "up to 25 % higher AC resistance in aluminium conduit for large sizes (induced "
+            "conduit currents); the table method takes its figures.")
     result.sources += list(SOURCES)
     result.cautions += [CAUTION_AMPACITY, *cautions.COMMON]
 
@@ -214,7 +262,8 @@ def _view(inputs):
     metric = size.system == "mm2"
     with conductor_fields(spacing="spacing_m"):
         z = conductors.impedance(size, material, inputs["temperature_c"], inputs["frequency_hz"],
-                                 inputs["raceway"], inputs["spacing_m"], inputs["method"])
+                                 inputs["raceway"], inputs["spacing_m"], inputs["method"],
+                                 insulation=inputs["insulation"], formation=inputs["formation"])
     z_085 = conductors.effective_impedance(z.r_ac, z.x)
 
     result = Result()
@@ -227,6 +276,8 @@ def _view(inputs):
     result.output("x", z.x, _per_length(z.x, metric))
     if z.r_dc_table is not None:
         result.output("r_dc_table", z.r_dc_table, _per_length(z.r_dc_table, metric))
+    if z.r_ac_table9 is not None:
+        result.output("r_ac_table9", z.r_ac_table9, _per_length(z.r_ac_table9, metric))
     result.output("z_085", z_085, _per_length(z_085, metric))
     _steps(result, inputs, z, z_085, area_display, metric)
     _checks(result, inputs, z, metric)
@@ -254,10 +305,14 @@ CALCULATOR = Calculator(
               help="Steel conduit raises reactance and AC resistance."),
         Input("spacing_m", "Conductor spacing", "quantity", unit="m", optional=True, minimum=0,
               min_exclusive=True, maximum=10,
-              help="Centre-to-centre spacing in trefoil; blank means touching conductors."),
-        Input("method", "Resistance method", "choice", default="physics",
-              choices=conductors.METHODS,
-              help="Physics from resistivity, or the published table (NEC Table 8, IEC 60228)."),
+              help="Centre-to-centre spacing of adjacent conductors; blank means touching."),
+        Input("insulation", "Insulation (for the reactance)", "choice", default="typical",
+              choices=conductors.INSULATIONS, advanced=True,
+              help="Sets how far apart touching conductors lie. NEC Table 9 assumes RHH."),
+        Input("formation", "Formation", "choice", default="trefoil",
+              choices=conductors.FORMATIONS, advanced=True,
+              help="How the three conductors lie. NEC Table 9 assumes cradled in conduit."),
+        method_input(),
     ),
     outputs=(
         Output("area", "Cross-section", "m²"),
@@ -265,6 +320,7 @@ CALCULATOR = Calculator(
         Output("r_ac", "AC resistance", "Ω/m"),
         Output("x", "Series reactance", "Ω/m"),
         Output("r_dc_table", "DC resistance, published table", "Ω/m"),
+        Output("r_ac_table9", "AC resistance, NEC Chapter 9 Table 9 (75 °C, 60 Hz)", "Ω/m"),
         Output("z_085", f"Effective impedance at {POWER_FACTOR_NEC:g} pf", "Ω/m"),
     ),
     compute=_view,

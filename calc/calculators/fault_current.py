@@ -10,6 +10,7 @@ import math
 
 from calc import cautions, conductors, electrical, network, protection, transformers
 from calc.calculators import _inputs
+from calc.calculators._plausibility import outside, plausibility
 from calc.calculators._protection import require_table_conductor
 from calc.calculators._texts import SOURCE_IEC60909
 from calc.errors import InputError
@@ -22,13 +23,30 @@ NODES = (("main", 1, "Transformer secondary (main)"), ("panel", 2, "End of the f
          ("equipment", 3, "End of the branch (equipment)"))
 MAX_FEEDER_SETS = 20
 
+# Plausibility: the range of real transformers and switchgear (all common practice).
+# Low-voltage secondaries (up to 1 kV) are made from 3 kVA (the smallest three-phase rating of
+# the IEEE C57.12 preferred series, read) to about 5000 kVA (secondary unit substations).
+LV_TRANSFORMER_VA = (3e3, 5e6)
+# Nameplate impedance: 1 % (small dry-types) to 15 % (large power transformers); IS 2026 lists
+# 5 % below 1 MVA to 12.5 % above 30 MVA (read), US liquid-filled units 5.75 %.
+TRANSFORMER_Z_PCT = (1.0, 15.0)
+# Transformer X/R: about 1 for the smallest dry-types to about 50 for the largest power
+# transformers (IEEE C37.010 typical X/R curves, from memory).
+TRANSFORMER_X_R = (0.5, 50.0)
+# The highest interrupting ratings made: 200 kA for low-voltage breakers and fuses (UL 489,
+# IEC 60947-2; UL 248 fuses to 200 kA, 300 kA for a few), 63 kA for medium-voltage breakers
+# (IEEE C37.06 / IEC 62271-100 ratings): a fault current above them is outside real equipment.
+MAX_FAULT_LV_A = 200e3
+MAX_FAULT_MV_A = 63e3
+
 SOURCE_PATH_ENGINE = (
     "Impedances summed as phasors along the radial path by Fluxbook's path engine (checked "
     "against pandapower's IEC 60909 short-circuit calculation).")
 SOURCE_CONDUCTORS = (
     "Conductor impedance: NEC Chapter 9 Tables 8 and 9 / IEC 60228 with IEC 60287-1-1 skin and "
     "proximity effect (see the conductor calculator).")
-SOURCE_UL489 = "UL 489 short-circuit test power factors — from memory."
+SOURCE_UL489 = ("UL 489 short-circuit test power factors — read, as reproduced in TSEWG TP-6 "
+                "Table 1 (studylib.net/doc/12093578).")
 CAUTION_SERIES_RATINGS = (
     "Series ratings (a breaker protected by an upstream device with a higher rating) hold only "
     "for combinations the maker has tested and the equipment is marked for (NEC 240.86, from "
@@ -169,9 +187,10 @@ def _rating_checks(result, inputs, faults):
             result.check(f"{name}_x_r", "warn",
                          f"{label}: X/R is {fault.x_r:.3g}, above the {x_r_test:.3g} of the test "
                          f"circuit for a {fq(rating, 'A')} rating (UL 489 test power factor "
-                         f"{math.cos(math.atan(x_r_test)):.2f}, from memory). The asymmetrical "
-                         "current is higher than in the test, so the breaker's effective rating "
-                         "is lower: apply the maker's X/R multiplying factor.")
+                         f"{math.cos(math.atan(x_r_test)):.2f}, read, as reproduced in TSEWG "
+                         "TP-6). The asymmetrical current is higher than in the test, so the "
+                         "breaker's effective rating is lower: apply the maker's X/R "
+                         "multiplying factor.")
 
 
 def _voltage_factor_check(result, token, volts):
@@ -182,8 +201,52 @@ def _voltage_factor_check(result, token, volts):
         result.check("voltage_factor", "warn",
                      f"{dict(transformers.VOLTAGE_FACTORS)[token]}; above "
                      f"{transformers.LOW_VOLTAGE_LIMIT_V / 1e3:g} kV (this secondary is "
-                     f"{fq(volts, 'V')}) c_max is {c_there:.2f} (IEC 60909-0 Table 1, from "
-                     "memory).")
+                     f"{fq(volts, 'V')}) c_max is {c_there:.2f} (IEC 60909-0 Table 1, read, as "
+                     "reproduced in pandapower's documentation).")
+
+
+def transformer_reasons(rating, secondary_voltage, z_pct):
+    """Plausibility reasons for a transformer that is not made: a low-voltage secondary outside
+    LV_TRANSFORMER_VA, or an impedance outside TRANSFORMER_Z_PCT (shared with motor-start-dip)."""
+    reasons = []
+    low_voltage = secondary_voltage <= transformers.LOW_VOLTAGE_LIMIT_V
+    if low_voltage and outside(rating, *LV_TRANSFORMER_VA):
+        reasons.append(f"a {fq(rating, 'VA')} transformer with a {fq(secondary_voltage, 'V')} "
+                       "secondary: low-voltage secondaries are made from "
+                       f"{fq(LV_TRANSFORMER_VA[0], 'VA')} to about "
+                       f"{fq(LV_TRANSFORMER_VA[1], 'VA')} (common practice)")
+    if outside(z_pct, *TRANSFORMER_Z_PCT):
+        reasons.append(f"an impedance of {z_pct:g} % is outside the {TRANSFORMER_Z_PCT[0]:g}–"
+                       f"{TRANSFORMER_Z_PCT[1]:g} % of real transformers (common practice)")
+    return reasons
+
+
+def _largest_fault(voltage):
+    """The highest interrupting rating made at a voltage [A]."""
+    return MAX_FAULT_LV_A if voltage <= transformers.LOW_VOLTAGE_LIMIT_V else MAX_FAULT_MV_A
+
+
+def _plausibility(result, inputs, main):
+    """Transformers, supplies and fault levels outside the range of real equipment."""
+    volts = inputs["secondary_v"]
+    reasons = transformer_reasons(inputs["xfmr_kva"], volts, inputs["xfmr_z_pct"])
+    if outside(inputs["xfmr_x_r"], *TRANSFORMER_X_R):
+        reasons.append(f"an X/R of {inputs['xfmr_x_r']:g} is outside the "
+                       f"{TRANSFORMER_X_R[0]:g}–{TRANSFORMER_X_R[1]:g} of real transformers "
+                       "(IEEE C37.010 typical values, from memory)")
+    duty = max(main.three_phase_a, main.line_to_neutral_a or 0.0)
+    if duty > _largest_fault(volts):
+        reasons.append(f"{fq(duty, 'A')} at the secondary is above the "
+                       f"{fq(_largest_fault(volts), 'A')} of the highest interrupting ratings made "
+                       "at that voltage (common practice): no device could be applied there")
+    level = _inputs.source_level(inputs, inputs["source_v"], 3)
+    if level is not None:
+        primary = electrical.line_current(level, inputs["source_v"], 3)
+        if primary > _largest_fault(inputs["source_v"]):
+            reasons.append(f"the supply's {fq(primary, 'A')} at {fq(inputs['source_v'], 'V')} is "
+                           f"above the {fq(_largest_fault(inputs['source_v']), 'A')} switchgear "
+                           "is rated for there (common practice): check the supply's level")
+    plausibility(result, reasons)
 
 
 def _view(inputs):
@@ -215,6 +278,7 @@ def _view(inputs):
 
     _rating_checks(result, inputs, faults)
     _voltage_factor_check(result, inputs["voltage_factor"], volts)
+    _plausibility(result, inputs, faults[1])
 
     result.assumptions += list(ASSUMPTIONS)
     if iec:

@@ -8,6 +8,7 @@ UL 943 Class A for a GFCI, IEC 61008-1 / 61009-1 for an RCD.
 from typing import NamedTuple
 
 from calc import cautions, protection
+from calc.calculators._plausibility import plausibility
 from calc.errors import InputError
 from calc.protection import (
     ADDITIONAL_PROTECTION_A,
@@ -27,6 +28,19 @@ DEVICES = (("gfci", "GFCI, UL 943 Class A"), ("rcd", "RCD, general type (IEC 610
 _ROUNDING = 1e-9  # a current entered as exactly 50 % or 30 mA is at the limit, not above it
 CHART_POINTS = 40
 
+# Plausibility: readings a real device and a real tester can give.
+# Preferred rated residual operating currents IΔn [A] (IEC 61008-1 / 61009-1, from memory).
+RCD_PREFERRED_RESIDUAL_A = (0.006, 0.01, 0.03, 0.1, 0.3, 0.5, 1.0)
+# A GFCI's or RCD's contacts take some milliseconds to part (the fastest trip in about a quarter
+# of a cycle): a reading below 5 ms is faster than any device — common practice; most often a
+# unit slip (s for ms).
+FASTEST_TRIP_S = 0.005
+# RCD testers apply ½, 1, 2 and 5 × IΔn for timed tests and ramp up to about 1.1 × IΔn
+# (IEC 61557-6, from memory): no tester gives a reading beyond these.
+TESTER_MAX_MULTIPLE = 5.0
+RAMP_MAX_MULTIPLE = 1.1
+_SERIES_MATCH = 1e-6  # an IΔn entered as 30 mA is the preferred 0.03 A despite float rounding
+
 
 
 def _ma(current):
@@ -44,9 +58,11 @@ _RCD_MULTIPLES = ", ".join(f"{m} IΔn" if m > 1 else "IΔn" for m in RCD_BREAK_T
 SOURCES = (
     f"UL 943: Class A trips at {_ma(GFCI_MUST_TRIP_A)} and above, not below "
     f"{_ma(GFCI_NO_TRIP_A)}; {_GFCI_FORMULA} for {_GFCI_RANGE} (read as quoted).",
-    f"IEC 61008-1 / 61009-1: break times at {_RCD_MULTIPLES}; no trip at {_NO_TRIP_PCT} IΔn "
-    "(from memory).",
-    f"IEC 60364-4-41 415.1.1: RCDs of {_ADDITIONAL} as additional protection.",
+    f"IEC 61008-1 / 61009-1: greatest break times at {_RCD_MULTIPLES} (read, as reproduced in "
+    "the BS EN 61008-1 / 61009-1 table quoted at html.pdfcookie.com/…/rvr7mmqer72o.html); type "
+    f"S least times and no trip at {_NO_TRIP_PCT} IΔn (from memory).",
+    f"IEC 60364-4-41 415.1.1: RCDs of {_ADDITIONAL} as additional protection (read, as quoted "
+    "with its clause number in the same article, BS 7671 numbering).",
 )
 ASSUMPTIONS = (
     "Readings from an RCD / GFCI tester at the outlet, with the circuit's own leakage small "
@@ -187,6 +203,37 @@ def _rcd_rating_checks(result, device, rated):
                      "marking.")
 
 
+def _plausibility(result, gfci, rated, trip_current, test_current, trip_time):
+    """Readings outside what any GFCI, RCD or tester gives."""
+    reasons = []
+    if not gfci and not any(abs(rated / preferred - 1.0) <= _SERIES_MATCH
+                            for preferred in RCD_PREFERRED_RESIDUAL_A):
+        series = ", ".join(_ma(i) for i in RCD_PREFERRED_RESIDUAL_A)
+        reasons.append(f"IΔn = {_ma(rated)} is not a rating RCDs are made in ({series}: IEC "
+                       "61008-1 / 61009-1 preferred values, from memory); check the marking")
+    if trip_time is not None and trip_time < FASTEST_TRIP_S:
+        reasons.append(f"a trip time of {fq(trip_time, 's')} is faster than any device opens "
+                       f"(at least about {fq(FASTEST_TRIP_S, 's')}: common practice); check the "
+                       "unit (ms, not s)")
+    ramp_top = GFCI_CURVE_RANGE_A[1] if gfci else RAMP_MAX_MULTIPLE * rated
+    test_top = GFCI_CURVE_RANGE_A[1] if gfci else TESTER_MAX_MULTIPLE * rated
+    tops = (
+        (trip_current, ramp_top, "a ramp reading",
+         f"the {_ma(ramp_top)} top of UL 943's test range" if gfci else
+         f"{RAMP_MAX_MULTIPLE:g} × IΔn = {_ma(ramp_top)}, where a tester's ramp stops "
+         "(IEC 61557-6, from memory): a device that has not tripped by then has failed, and no "
+         "tester reports a higher trip current"),
+        (test_current, test_top, "a test current",
+         f"the {_ma(test_top)} top of UL 943's trip-time range" if gfci else
+         f"the {TESTER_MAX_MULTIPLE:g} × IΔn = {_ma(test_top)} a tester applies (IEC 61557-6 / "
+         "IEC 61008-1 tests, from memory)"),
+    )
+    for reading, top, what, where in tops:
+        if reading is not None and reading > top * (1 + _SERIES_MATCH):
+            reasons.append(f"{what} of {_ma(reading)} is beyond {where}")
+    plausibility(result, reasons)
+
+
 def _view(inputs):
     device = inputs["device"]
     gfci = device == "gfci"
@@ -231,6 +278,7 @@ def _view(inputs):
         result.check("measured", "warn", "Nothing measured to judge: enter the tester's trip "
                      "current, or its trip time and test current.")
 
+    _plausibility(result, gfci, rated, trip_current, test_current, trip_time)
     result.assumptions += list(ASSUMPTIONS)
     result.sources += list(SOURCES)
     result.cautions += list(CAUTIONS)

@@ -7,7 +7,8 @@ suggested snubber.
 import math
 
 from calc import cautions, rlc
-from calc.calculators._circuits import chart_times, format_energy
+from calc.calculators._circuits import chart_times, format_energy, part_reasons
+from calc.calculators._plausibility import outside, plausibility
 from calc.errors import InputError
 from calc.rlc import PASCHEN_MINIMUM_V, TWO_PI
 from calc.spec import Calculator, Input, Output, Result
@@ -32,6 +33,32 @@ DEFAULT_SWITCH_LIMIT_RATIO = 2.0
 # The chart shows at most this many cycles of a long ringing.
 CHART_CYCLES = 8.0
 
+# The smallest supply, clamp or diode voltage the form takes: 0.1 V, below any real coil supply
+# and any diode's forward drop (Schottky diodes drop about 0.2 V); smaller values only overflow
+# the arithmetic (a clamp of 1e-300 V).
+MIN_VOLTAGE_V = 0.1
+
+# The suggested snubber capacitor is given as the next IEC 60063 preferred value up in this
+# series (E12 holds every E6 value too; read, as reproduced in Wikipedia — see calc.rlc.E_SERIES).
+SNUBBER_SERIES = "E12"
+
+# ---- plausibility: the range of real DC coils (issue 11, item 9) -------------------------------
+
+# DC relay, contactor and solenoid coils are made for 3 V to 250 V (5, 12, 24, 48, 110, 125,
+# 220, 250 V are usual control voltages) — common practice.
+COIL_SUPPLY_RANGE_V = (3.0, 250.0)
+# Coils draw from about 50 mW (sensitive relays) to a few hundred watts (large DC contactors);
+# brakes and lifting magnets reach kilowatts — common practice.
+COIL_POWER_RANGE_W = (0.05, 2000.0)
+# Inductances from a tenth of a millihenry (reed relays) to tens of henries (large contactors,
+# brakes, lifting magnets) — common practice.
+COIL_INDUCTANCE_RANGE_H = (1e-4, 100.0)
+# Winding and wiring capacitance: picofarads to a few nanofarads — common practice.
+STRAY_CAPACITANCE_RANGE_F = (1e-12, 10e-9)
+# Non-polarised (film) capacitors for a snubber are rarely made above this; beyond it a
+# diode + zener or a varistor is the practical suppressor — common practice.
+SNUBBER_CAPACITANCE_MAX_F = 100e-6
+
 SOURCES = (
     "Energy ½LI², first-order decay and the series RLC loop: Nilsson and Riedel, Electric "
     "Circuits, 10th ed., chapters 6–8 — from memory.",
@@ -39,6 +66,8 @@ SOURCES = (
     "common practice.",
     f"Minimum breakdown voltage of an air gap, about {PASCHEN_MINIMUM_V:g} V (Paschen minimum): "
     "J. M. Meek and J. D. Craggs, Electrical Breakdown of Gases, 1978 — from memory.",
+    f"Preferred capacitor values: IEC 60063:2015, {SNUBBER_SERIES} series (read, as reproduced in "
+    "Wikipedia, “E series of preferred numbers”).",
 )
 ASSUMPTIONS = (
     "DC coil, switched off by an ideal switch in its supply lead; the suppressor is across "
@@ -113,16 +142,20 @@ def _view(inputs):
     result.output("unsuppressed_v", -bare.peak_coil_v)
     result.output("snubber_r", rs if suppression == "rc" else snub_r)
     result.output("snubber_c", cap if suppression == "rc" else snub_c)
+    standard_c = rlc.preferred_value_up(snub_c, SNUBBER_SERIES)
+    result.output("snubber_c_standard", standard_c, fq(standard_c, "F", 2))
 
     _steps(result, inputs, kick, bare, clamp, cap, rs)
     ratio_text = "" if rating is not None else f" ({DEFAULT_SWITCH_LIMIT_RATIO:g} × the supply)"
     result.step(f"Suggested RC snubber for a switch limit of {fq(limit, 'V')}{ratio_text}",
                 "R_s = R_coil; smallest C_s with V_switch ≤ limit",
-                f"R_s = {fq(snub_r, 'ohm')}, C_s = {fq(snub_c, 'F')} (next standard value up, "
-                f"rated for at least "
-                f"{fq(max(limit, DEFAULT_SWITCH_LIMIT_RATIO * supply), 'V')})")
+                f"R_s = {fq(snub_r, 'ohm')}, C_s ≥ {fq(snub_c, 'F')}: fit "
+                f"{fq(standard_c, 'F', 2)}, the next IEC 60063 {SNUBBER_SERIES} value up, rated "
+                f"for at least {fq(max(limit, DEFAULT_SWITCH_LIMIT_RATIO * supply), 'V')}")
 
     _checks(result, suppression, kick, bare, rating)
+    used_c = cap if suppression == "rc" else snub_c
+    plausibility(result, _implausible(inputs, used_c))
     result.assumptions += ASSUMPTIONS
     if suppression == "varistor" and inputs["clamp_v"] is None:
         result.assumptions.append(
@@ -195,6 +228,27 @@ def _steps(result, inputs, kick, bare, clamp, cap, rs):
                     f"= {format_energy(kick.absorbed_energy)}")
 
 
+def _implausible(inputs, snubber_c):
+    """Why this coil or its suppressor lies outside real ones ([] when it does not)."""
+    supply, r, l, stray = inputs["supply_v"], inputs["r"], inputs["l"], inputs["stray_c"]
+    reasons = part_reasons(resistance=r)
+    for value, (low, high), unit, what, usual in (
+            (supply, COIL_SUPPLY_RANGE_V, "V", "a coil supply of", "DC coils are made for"),
+            (supply * supply / r, COIL_POWER_RANGE_W, "W", "a coil power V²/R of",
+             "DC coils draw"),
+            (l, COIL_INDUCTANCE_RANGE_H, "H", "a coil inductance of", "DC coils have"),
+            (stray, STRAY_CAPACITANCE_RANGE_F, "F", "a stray capacitance of",
+             "windings and wiring have")):
+        if outside(value, low, high):
+            reasons.append(f"{what} {fq(value, unit)}: {usual} {fq(low, unit, 2)} to "
+                           f"{fq(high, unit, 2)} (common practice)")
+    if snubber_c > SNUBBER_CAPACITANCE_MAX_F:
+        reasons.append(f"a snubber capacitor of {fq(snubber_c, 'F')}: film capacitors for "
+                       f"snubbers are rarely above {fq(SNUBBER_CAPACITANCE_MAX_F, 'F', 2)} "
+                       "(common practice); use a diode + zener or a varistor")
+    return reasons
+
+
 def _kick_duration(kick, resistance, inductance, capacitance):
     """How long the chart shows: the whole decay, or CHART_CYCLES cycles of a long ringing."""
     if capacitance is None:
@@ -238,8 +292,8 @@ CALCULATOR = Calculator(
             "switched off, and what a diode, zener, RC snubber or varistor makes of it.",
     group="Circuits",
     inputs=(
-        Input("supply_v", "Coil supply voltage (DC)", "quantity", unit="V", default=24, minimum=0,
-              min_exclusive=True, maximum=1000),
+        Input("supply_v", "Coil supply voltage (DC)", "quantity", unit="V", default=24,
+              minimum=MIN_VOLTAGE_V, maximum=1000),
         Input("r", "Coil resistance", "quantity", unit="ohm", default=48, minimum=1e-3,
               maximum=1e7, help="Measured across the coil terminals, de-energised."),
         Input("l", "Coil inductance", "quantity", unit="H", default="0.5 H", minimum=1e-9,
@@ -249,7 +303,7 @@ CALCULATOR = Calculator(
               minimum=0, min_exclusive=True, maximum=1e5,
               help="Of the contact or transistor that switches the coil; blank: no check."),
         Input("clamp_v", "Zener or varistor clamping voltage", "quantity", unit="V",
-              optional=True, minimum=0, min_exclusive=True, maximum=1e5,
+              optional=True, minimum=MIN_VOLTAGE_V, maximum=1e5,
               help=f"Blank: the supply (zener) or {VARISTOR_CLAMP_RATIO:g} × the supply "
                    "(varistor)."),
         Input("snubber_r", "Snubber resistance", "quantity", unit="ohm", optional=True,
@@ -261,7 +315,7 @@ CALCULATOR = Calculator(
               help="Share of the holding current at which the armature releases "
                    "(common practice 10–30 %)."),
         Input("diode_vf", "Diode forward voltage", "quantity", unit="V", default=0.8,
-              minimum=0, min_exclusive=True, maximum=5, advanced=True),
+              minimum=MIN_VOLTAGE_V, maximum=5, advanced=True),
         Input("stray_c", "Coil stray capacitance", "quantity", unit="F", default="200 pF",
               minimum=1e-13, maximum=1e-6, advanced=True,
               help="Winding and wiring capacitance; it alone limits an unsuppressed kick."),
@@ -275,7 +329,9 @@ CALCULATOR = Calculator(
         Output("absorbed_energy", "Energy the suppressor absorbs", "J"),
         Output("unsuppressed_v", "Peak coil voltage with no suppression", "V"),
         Output("snubber_r", "Snubber R (suggested or entered)", "Ω"),
-        Output("snubber_c", "Snubber C (suggested or entered)", "F"),
+        Output("snubber_c", "Snubber C (suggested minimum, or entered)", "F"),
+        Output("snubber_c_standard", f"Suggested snubber C, next IEC 60063 {SNUBBER_SERIES} "
+               "value up", "F"),
     ),
     compute=_view,
 )

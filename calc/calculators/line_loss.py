@@ -12,12 +12,18 @@ from calc.calculators._conductors import (
     CONDUCTOR_DATA_SOURCE,
     FORMULA_SOURCE,
     LIMIT_SOURCE,
+    conductor_data_check,
     conductor_impedance,
     conductor_step,
+    current_reason,
     drop_limit_check,
+    drop_reason,
+    refuse_hp,
     run_input,
+    supply_reasons,
     whole_number,
 )
+from calc.calculators._plausibility import plausibility
 from calc.errors import InputError, InputErrors, VoltageCollapse
 from calc.line_loss import (
     BULLER_WOODROW,
@@ -99,6 +105,8 @@ class _Reading(NamedTuple):
 
 def _read(inputs):
     system = inputs["system"]
+    refuse_hp(inputs, "power", "give the power the load draws, in kW (a motor draws its output / "
+              "its efficiency)")
     if inputs["load_factor"] is not None and inputs["loss_factor"] is not None:
         raise InputError("loss_factor", inputs["loss_factor"], "give the load factor or the loss "
                          "factor, not both (the loss factor is found from the load factor)")
@@ -244,6 +252,8 @@ def _view(inputs):
 
     _steps(result, inputs, reading, z, first, alt, upsized, extra_cost, payback)
     _checks(result, inputs, first, alt, upsized_saving, extra_cost, payback)
+    conductor_data_check(result, inputs["method"], z)
+    _plausibility(result, inputs, reading, first, alt, upsized)
     _describe(result, inputs, chain, max(voltage, alt_voltage))
     result.series = _loss_series(first, alt)
     return result
@@ -358,6 +368,16 @@ def _checks(result, inputs, first, alt, upsized_saving, extra_cost, payback):
     else:
         result.check("payback", "pass", f"The larger conductor pays back its extra cost in "
                      f"{_years(payback)} (simple payback, no discounting).")
+
+
+def _plausibility(result, inputs, r, first, alt, upsized):
+    """The `plausibility` check: currents against the sizes' ampacity, the run, the drops."""
+    material = inputs["material"]
+    reasons = [current_reason(option.current, option.size, material, r.sets)
+               for option in (first, alt, upsized)]
+    reasons += supply_reasons(r.system, first.voltage, r.pf, r.length)
+    reasons += [drop_reason(option.run.limit_drop_pct) for option in (first, alt)]
+    plausibility(result, [reason for reason in dict.fromkeys(reasons) if reason])
 
 
 def _load_model_check(result, first, alt):
@@ -479,8 +499,8 @@ CALCULATOR = Calculator(
     inputs=(
         run_input("system", default="3ph"),
         run_input("power", label="Load power", default=50, optional=False, advanced=False,
-                  help="Real power the load draws, kW or hp of input (the peak, if you give a "
-                       "load factor)."),
+                  help="Real power the load draws, in kW (the peak, if you give a load "
+                       "factor); a motor draws its output / its efficiency."),
         run_input("pf"),
         run_input("voltage", label="Voltage", default=208, region_defaults={"iec": 400},
                   help="The first candidate; line-to-line for three-phase, 240 V for 120/240 V."),
@@ -504,10 +524,10 @@ CALCULATOR = Calculator(
         Input("load_factor", "Load factor", "quantity", unit="", optional=True, minimum=0,
               min_exclusive=True, maximum=1, advanced=True,
               help="Average over peak load during the hours; gives the loss factor by "
-                   "Buller & Woodrow. Blank: the load runs flat."),
+                   "Buller & Woodrow. Blank: the load runs flat.", group="loss_shape"),
         Input("loss_factor", "Loss factor (instead of load factor)", "quantity", unit="",
               optional=True, minimum=0, min_exclusive=True, maximum=1, advanced=True,
-              help="Average over peak I²R loss, if known from metering."),
+              help="Average over peak I²R loss, if known from metering.", group="loss_shape"),
         *_transformer_inputs("step_up", "step-up", "at the source, from the first voltage up"),
         *_transformer_inputs("step_down", "step-down", "at the load, back down"),
         Input("energised_hours", "Transformer hours energised per year", "quantity", unit="h",

@@ -38,6 +38,8 @@ def _view(inputs):
     result.output("length", length, shown)
     result.output("drop_pct", run.drop_pct)
     result.output("current", run.current)
+    if run.leg_drop_pct is not None:
+        result.output("drop_leg_pct", run.leg_drop_pct)
     result.step("Longest run: the length at which the exact drop equals the limit (bisection)",
                 f"drop(L) = {limit:g} %", f"L = {shown}")
     describe_run(result, inputs, size, length, z, run)
@@ -56,6 +58,7 @@ CALCULATOR = Calculator(
         Output("length", "Longest one-way run", "m"),
         Output("drop_pct", "Voltage drop at that length", "%"),
         Output("current", "Load current", "A"),
+        Output("drop_leg_pct", "120/240 V: drop on the heavier leg, line to neutral", "%"),
     ),
     compute=_view,
 )

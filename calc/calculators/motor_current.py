@@ -9,6 +9,7 @@ starting current and torque by method, with a chart of line current against moto
 from calc import cautions
 from calc import induction_motors as im
 from calc.calculators import _inputs, _motors
+from calc.calculators._plausibility import outside, plausibility
 from calc.errors import InputError, field_error
 from calc.spec import Calculator, Input, Output, Result
 from calc.units import format_quantity as fq
@@ -26,11 +27,19 @@ TABLE_AGREEMENT = 0.15
 # torque at standstill; below it only fans and centrifugal pumps (common practice).
 FULL_LOAD_TORQUE_PCT = 100.0
 
+# Plausibility: full-load efficiency and power factor of real induction motors, from small
+# single-phase motors (about 0.4-0.6 each) to the largest premium-efficiency ones (efficiency
+# about 0.97-0.98, power factor about 0.9-0.93); an induction motor needs magnetising current,
+# so its power factor never reaches 1 — common practice.
+EFFICIENCY_RANGE = (0.4, 0.98)
+POWER_FACTOR_RANGE = (0.4, 0.95)
+
 SOURCES = [
     "Code letters: NEMA MG 1 §10.37.2 as reproduced in NEC Table 430.7(B) (read, as reproduced "
     "by EASA).",
-    "Full-load currents: NEC Tables 430.248 (single-phase) and 430.250 (three-phase) — from "
-    "memory, checked against a reproduction of the 2008 three-phase table.",
+    "Full-load currents: NEC Tables 430.248 (single-phase) and 430.250 (three-phase) — read, "
+    "as reproduced (NEC 2017, repository mjk83093/sil NEC2017_Chapter_4.md; 430.250 also NEC "
+    "2008, scribd.com/doc/250218196).",
     "Starting methods: wye-delta 1/3, autotransformer line current ≈ tap², reactor ≈ k, "
     "torque ∝ V² — machine theory, from memory; soft-starter and drive settings — common "
     "practice.",
@@ -218,8 +227,8 @@ def _full_load(inputs, power, voltage, phases, result):
         return flc
     result.output("table_a", table_a)
     deviation = flc / table_a - 1.0
-    result.step(f"NEC Table {number} full-load current ({column:g} V column; from memory "
-                "— check your code book)", "I_table", f"= {fq(table_a, 'A')}; the "
+    result.step(f"NEC Table {number} full-load current ({column:g} V column; read, as "
+                "reproduced — check your code book)", "I_table", f"= {fq(table_a, 'A')}; the "
                 f"formula gives {100 * deviation:+.1f} % against it")
     agree = abs(deviation) <= TABLE_AGREEMENT
     band = f"±{100 * TABLE_AGREEMENT:g} %"
@@ -259,9 +268,21 @@ def _motor_current_view(inputs):
             "Starting torque is given as a share of the across-the-line locked-rotor torque; "
             "enter the locked-rotor torque (% of full-load) under More inputs to compare it with "
             "the load.")
+    _motors.size_plausibility(result, power, voltage, phases, flc, _plausibility_reasons(inputs))
     result.sources += SOURCES
     result.cautions += CAUTIONS + list(cautions.COMMON)
     return result
+
+
+def _plausibility_reasons(inputs):
+    """Efficiency and power factor outside those of real induction motors."""
+    reasons = []
+    for name, label, (low, high) in (("efficiency", "efficiency", EFFICIENCY_RANGE),
+                                     ("pf", "power factor", POWER_FACTOR_RANGE)):
+        if outside(inputs[name], low, high):
+            reasons.append(f"a full-load {label} of {inputs[name]:g} is outside the {low:g}–"
+                           f"{high:g} of real induction motors (common practice)")
+    return reasons
 
 
 def _reduced_voltage_series(locked_a, flc, start, method):
@@ -322,11 +343,12 @@ CALCULATOR = Calculator(
                    f"{im.DEFAULT_CURRENT_LIMIT['vfd']:g} × for a drive (common practice)."),
         Input("lra", "Locked-rotor current (LRA), if known", "quantity", unit="A", optional=True,
               minimum=0, min_exclusive=True, maximum=1e6, advanced=True,
-              help="From the nameplate or data sheet; it replaces the code-letter figure."),
+              help="From the nameplate or data sheet; it replaces the code-letter figure.",
+              group="locked_rotor"),
         Input("lr_multiple", "Locked-rotor current as a multiple of FLC", "quantity", unit="",
               optional=True, minimum=1, maximum=20, advanced=True,
               region_defaults={"iec": 7},
-              help="I_LR / I_N from the data sheet (IEC practice), e.g. 7."),
+              help="I_LR / I_N from the data sheet (IEC practice), e.g. 7.", group="locked_rotor"),
         Input("lrt_pct", "Locked-rotor torque (% of full-load torque)", "quantity", unit="%",
               optional=True, minimum=0, min_exclusive=True, maximum=1000, advanced=True,
               help="From the data sheet, e.g. 150 %; lets the result compare torque with load."),

@@ -9,6 +9,8 @@ the starter (or the current a soft starter or drive holds). Each usual remedy is
 from calc import cautions, electrical, network, transformers, units
 from calc import induction_motors as im
 from calc.calculators import _inputs, _motors
+from calc.calculators._plausibility import outside
+from calc.calculators.fault_current import LV_TRANSFORMER_VA, transformer_reasons
 from calc.errors import InputError, ParameterError, PathError, field_error
 from calc.spec import Calculator, Input, Output, Result
 from calc.units import format_quantity as fq
@@ -24,6 +26,10 @@ HELD_PF = {"soft": 0.35, "vfd": 0.9}
 # efficiency and power factor (common practice).
 ASSUMED_EFFICIENCY = 0.9
 ASSUMED_PF = 0.85
+
+# Plausibility: the locked-rotor power factor of real motors, about 0.1-0.2 for the largest to
+# 0.5-0.6 for small ones (common practice).
+LOCKED_ROTOR_PF_RANGE = (0.1, 0.6)
 
 SIZE_STEP = 2  # how many sizes larger the "bigger shared conductor" remedy tries
 IEC_SECONDARY_VOLTAGES = (230.0, 400.0, 690.0)  # these secondaries take the IEC rating series
@@ -241,6 +247,26 @@ def _remedies(inputs, base, result):
                     f"{100.0 * option['motor_v'] / nominal:.3g} % of rated")
 
 
+def _plausibility(inputs, base, result):
+    """The motor's size at its voltage, the transformer and the starting data against real
+    equipment."""
+    power, volts = inputs["motor_power"], inputs["secondary_v"]
+    full_load = im.full_load_current(power, volts, 3, ASSUMED_EFFICIENCY, ASSUMED_PF)
+    reasons = transformer_reasons(inputs["xfmr_kva"], volts, inputs["xfmr_z_pct"])
+    if outside(inputs["starting_pf"], *LOCKED_ROTOR_PF_RANGE):
+        low, high = LOCKED_ROTOR_PF_RANGE
+        reasons.append(f"a locked-rotor power factor of {inputs['starting_pf']:g} is outside the "
+                       f"{low:g}–{high:g} of real motors (common practice)")
+    if inputs["lra"] is not None:
+        share = base["locked"] / full_load
+        low, high = im.PLAUSIBLE_LOCKED_ROTOR_MULTIPLE
+        if outside(share, low, high):
+            reasons.append(f"the locked-rotor current given is {share:.3g} × the estimated "
+                           f"full-load current {fq(full_load, 'A')}; across-the-line starting "
+                           f"draws {low:g}–{high:g} × (common practice)")
+    _motors.size_plausibility(result, power, volts, 3, full_load, reasons)
+
+
 def _motor_start_view(inputs):
     result = Result()
     base = _dips(inputs)
@@ -265,6 +291,7 @@ def _motor_start_view(inputs):
         f"efficiency {ASSUMED_EFFICIENCY:g} and power factor {ASSUMED_PF:g}.",
         "The start time is as given; with a high-inertia load it is longer.",
     ]
+    _plausibility(inputs, base, result)
     result.sources += SOURCES
     result.cautions += CAUTIONS + list(cautions.COMMON)
 

@@ -5,8 +5,10 @@ harmonic that drives produce? With the detuning reactor that moves the resonance
 
 from calc import cautions, electrical
 from calc.calculators import _inputs
+from calc.calculators._plausibility import plausibility
 from calc.errors import InputError
 from calc.power_factor import (
+    DETUNED_BANK_READ,
     DETUNING_FACTORS,
     IEEE18_CURRENT,
     IEEE18_RMS_VOLTAGE,
@@ -14,6 +16,7 @@ from calc.power_factor import (
     SIX_PULSE_HARMONICS,
     bus_short_circuit_power,
     capacitance_per_phase,
+    capacitor_rated_reactive_power,
     capacitor_reactive_power,
     capacitor_voltage,
     resonance_order,
@@ -29,8 +32,44 @@ from calc.units import format_quantity as fq
 RESONANCE_BAND = 0.10
 
 # The detuning suggested when none is entered: 7 % tunes to 3.78 × f1, below the 5th (the
-# relation n = 1/√p: textbook, read for 7 % → 189 Hz at 50 Hz).
+# relation n = 1/√p: J. C. Das, Power System Harmonics and Filter Design, 1st ed., 2015 — from
+# memory; 7 % → 189 Hz at 50 Hz read, as worked at studylib.net document 27030577).
 SUGGESTED_DETUNING_PCT = 7.0
+
+# ---- plausibility: the range of real banks and supplies (issue 11, item 9) -------------------
+
+# A bank is a small part of the short-circuit power at its bus (LV banks are a few percent):
+# beyond this share the bus would rise by more than this many percent on switching in, the
+# linear estimate ΔU ≈ Q_c/S_sc is 10 % low (exact: Q/(S − Q), computed) and the supply data or
+# the bank is out of proportion — common practice. Its resonance is not judged OK beyond it.
+BANK_SHARE_MAX_PCT = 10.0
+
+# Below the fundamental (h < 1) the bank's reactive power exceeds the short-circuit power: that
+# is no harmonic resonance but a bank far too large for the supply (computed: h² = S_sc/Q_c).
+FUNDAMENTAL_ORDER = 1.0
+
+# A transformer carries its nameplate continuously; a load beyond 150 % of rating exceeds the
+# loading guides' emergency limits (IEEE Std C57.91, IEC 60076-7 — from memory; the same limit
+# as the transformer calculators'). Such a load is not the load of the transformer entered.
+TRANSFORMER_OVERLOAD_MAX = 1.5
+
+# Transformer impedance of real units: about 0.5 % (small dry types) to 20 % (large power
+# transformers) — common practice; the same range as the transformer calculators'.
+TRANSFORMER_Z_RANGE_PCT = (0.5, 20.0)
+
+# Power capacitors are built for 50 Hz or 60 Hz supplies: IEEE Std 18 covers "a nominal
+# frequency of 50 Hz or 60 Hz" (read, in the standard's published abstract); a band of ±10 %
+# around them.
+SUPPLY_FREQUENCY_RANGE_HZ = (45.0, 66.0)
+
+# Capacitor banks for power-factor correction are made for supplies of about 120 V and up
+# (IEEE Std 18 covers units rated 216 V and up — read, in the standard's published abstract;
+# 120 V single-phase units exist — common practice).
+SUPPLY_VOLTAGE_MIN_V = 100.0
+
+# Low-voltage switchboard and switchgear mains reach 5000–6000 A (UL 891, IEEE C37.20.1 — from
+# memory, as the transformer calculators); larger loads are supplied at a higher voltage.
+LINE_CURRENT_MAX_A = 6000.0
 
 # Switching a bank step in should move the bus voltage by no more than a few percent; above
 # this the step is large for the supply — common practice.
@@ -41,6 +80,22 @@ HIGH_TARGET_PF = 0.98
 
 # A usual lagging target's lower end — common practice.
 USUAL_TARGET_PF = 0.95
+
+# Input floors below which the arithmetic, not the equipment, would fail (a resonance order
+# from a bank of 1e-300 var, tan φ overflowing): 1 W of load, 0.1 % impedance and a power factor
+# of 0.01, far below any real one.
+MIN_POWER_KW = 0.001
+MIN_POWER_FACTOR = 0.01
+# Likewise 10 VA of transformer, 1 kVA of fault level and a 0.5 % reactor (detuning reactors are
+# 5 to 14 %, inrush-limiting ones about 0.5 to 1 %).
+MIN_TRANSFORMER_KVA = 0.01
+MIN_SOURCE_MVA = 0.001
+MIN_REACTOR_PCT = 0.5
+MIN_IMPEDANCE_PCT = 0.1
+
+# A whole load below this power factor is an idling magnetising load or a meter read with the
+# wrong sign or CT; loaded motors and mixed plant run at 0.5 to 0.9 — common practice.
+PRESENT_PF_MIN = 0.3
 
 SENSES = (("lagging", "Lagging (inductive: motors, transformers)"),
           ("leading", "Leading (capacitive)"))
@@ -62,8 +117,8 @@ SOURCES = (
 )
 SOURCE_RESONANCE = (
     "h = √(S_sc/Q_c): IEEE Std 1531-2020 and IEEE Std 519 application guidance (read; the "
-    "clause numbers from memory). Detuning p with n = 1/√p and U_C = U/(1 − p): textbook "
-    f"(read). Continuous limits {100 * IEEE18_RMS_VOLTAGE:g} % voltage and "
+    "clause numbers from memory). Detuning p with n = 1/√p and U_C = U/(1 − p): "
+    f"{DETUNED_BANK_READ}. Continuous limits {100 * IEEE18_RMS_VOLTAGE:g} % voltage and "
     f"{100 * IEEE18_CURRENT:g} % current: IEEE Std 18-2012 (read)."
 )
 ASSUMPTIONS = (
@@ -82,10 +137,23 @@ CAUTION_DISCHARGE = (
 )
 
 
-def _check_inputs(inputs):
+def _target(inputs):
+    """The target power factor: as entered, or USUAL_TARGET_PF when left blank. A blank target
+    never conflicts with a present power factor typed above it: that load needs no bank."""
+    if inputs["pf_target"] is not None:
+        return inputs["pf_target"]
+    if inputs["pf_now"] >= USUAL_TARGET_PF:
+        raise InputError("pf_now", inputs["pf_now"],
+                         f"a load at {inputs['pf_now']:g} is already at or above the usual "
+                         f"target of {USUAL_TARGET_PF:g}: it needs no capacitors; to raise it "
+                         "further, enter a target power factor above it (up to 1)")
+    return USUAL_TARGET_PF
+
+
+def _check_inputs(inputs, pf_target):
     """Cross-field problems: leading/lagging mix-ups, a target below the present pf, and a
     transformer given by half."""
-    pf_now, pf_target = inputs["pf_now"], inputs["pf_target"]
+    pf_now = inputs["pf_now"]
     if inputs["pf_now_sense"] == "leading":
         raise InputError("pf_now_sense", "leading",
                          "a load whose power factor already leads is over-compensated: adding "
@@ -117,10 +185,13 @@ def _check_inputs(inputs):
 
 
 def _view(inputs):
-    _check_inputs(inputs)
+    pf_target = _target(inputs)
+    _check_inputs(inputs, pf_target)
     power, voltage, frequency = inputs["power"], inputs["voltage"], inputs["frequency_hz"]
-    pf_now, pf_target = inputs["pf_now"], inputs["pf_target"]
+    pf_now = inputs["pf_now"]
     phases = int(inputs["phases"])
+    # The bank as entered: with its reactor, or plain (a suggested reactor is only suggested).
+    p_bank = 0.0 if inputs["reactor_pct"] is None else inputs["reactor_pct"] / 100.0
     capacitor_q = capacitor_reactive_power(power, pf_now, pf_target)
     cap_a = electrical.line_current(capacitor_q, voltage, phases)
     before_va, after_va = power / pf_now, power / pf_target
@@ -142,11 +213,16 @@ def _view(inputs):
              ("delta", "c_delta", "Capacitance per phase, delta bank (each across V)",
               "C_Δ = Q_c / (3 × 2πf V²) = C_Y / 3")) if phases == 3 else (
         ("single", "c_single", "Capacitance", "C = Q_c / (2πf V²)"),)
+    reactor_text = (f" with the {100 * p_bank:g} % reactor in series: (1 − p) × the plain value, "
+                    "so that the branch X_C − X_L = (1 − p) X_C delivers Q_c" if p_bank else "")
     for connection, name, text, formula in banks:
-        capacitance = capacitance_per_phase(capacitor_q, voltage, frequency, connection)
+        capacitance = capacitance_per_phase(capacitor_q, voltage, frequency, connection, p_bank)
         result.output(name, capacitance)
         thirds = "3 × " if connection == "delta" else ""
-        result.step(text, formula, f"= {fq(capacitor_q, 'var')} / ({thirds}2π × {frequency:g} Hz "
+        factor, formula = ((f"(1 − {p_bank:g}) × ", formula.replace("= Q_c", "= (1 − p) Q_c"))
+                           if p_bank else ("", formula))
+        result.step(text + reactor_text, formula,
+                    f"= {factor}{fq(capacitor_q, 'var')} / ({thirds}2π × {frequency:g} Hz "
                     f"× ({v_t})²) = {fq(capacitance, 'F')}")
     conductor = NEC_460_8_FACTOR * cap_a
     result.output("conductor_a", conductor)
@@ -165,7 +241,12 @@ def _view(inputs):
     result.step("Losses in the supply cables and transformer upstream of the bank (∝ I²)",
                 "ΔP/P = 1 − (pf1 / pf2)²", f"= {loss_cut:.3g} % less")
 
-    _resonance(result, inputs, capacitor_q, voltage, frequency)
+    if inputs["pf_target"] is None:
+        result.assumptions.append(f"No target entered: {USUAL_TARGET_PF:g} lagging, the usual "
+                                  "lower end (common practice).")
+    _resonance(result, inputs, capacitor_q, voltage, frequency, pf_target)
+    _rating(result, inputs, capacitor_q, voltage, p_bank)
+    plausibility(result, _implausible(inputs, result, before_va, line_before))
     if pf_target > HIGH_TARGET_PF:
         result.check("light_load", "warn",
                      f"A target above {HIGH_TARGET_PF:g} leaves the bank over-compensating when "
@@ -189,7 +270,7 @@ def _near_harmonic(order):
     return None
 
 
-def _resonance(result, inputs, capacitor_q, voltage, frequency):
+def _resonance(result, inputs, capacitor_q, voltage, frequency, pf_target):
     """Resonance with the supply, the harmonic check, and the detuning figures."""
     xfmr_va, z_pct = inputs["xfmr_kva"], inputs["xfmr_z_pct"]
     source_va = inputs["source_mva"]
@@ -200,7 +281,7 @@ def _resonance(result, inputs, capacitor_q, voltage, frequency):
                      "No transformer or fault level given: the bank's resonance with the "
                      "supply is not checked. Enter the transformer's kVA and %Z (nameplate) "
                      "or the fault level at the bus.")
-        _series_without_supply(result, inputs)
+        _series_without_supply(result, inputs, pf_target)
         _capacitor_voltage(result, voltage, 0.0 if reactor is None else reactor / 100.0,
                            rated_v, reactor is not None)
         return
@@ -233,7 +314,15 @@ def _resonance(result, inputs, capacitor_q, voltage, frequency):
                      f"more than the {VOLTAGE_RISE_LIMIT_PCT:g} % a step usually should (common "
                      "practice); split the bank into steps or check the supply data.")
     near = _near_harmonic(order)
-    if near is not None:
+    share = 100.0 * capacitor_q / s_sc
+    if share > BANK_SHARE_MAX_PCT:
+        result.check("resonance", "warn", _out_of_proportion(order, share, capacitor_q, s_sc))
+    elif near is not None and reactor is not None:
+        result.check("resonance", "pass",
+                     f"A plain bank would resonate with the supply at h = {order:.3g}, on the "
+                     f"{near}th harmonic; the {reactor:g} % reactor entered moves the resonance "
+                     "below its tuning order (see the detuned check).")
+    elif near is not None:
         result.check("resonance", "warn",
                      f"The bank resonates with the supply at h = {order:.3g}, on the {near}th "
                      "harmonic of six-pulse drives and rectifiers "
@@ -246,14 +335,27 @@ def _resonance(result, inputs, capacitor_q, voltage, frequency):
                      f"{RESONANCE_BAND * 100:g} % from the {_ordinal_list(SIX_PULSE_HARMONICS)} "
                      "harmonics; it moves as kvar steps switch and the supply changes, so check "
                      "each step.")
-    p = _detuning(result, reactor, s_sc, capacitor_q, frequency)
+    p = _detuning(result, reactor, s_sc, capacitor_q, frequency, share <= BANK_SHARE_MAX_PCT)
     _capacitor_voltage(result, voltage, p, rated_v, True)
     _resonance_series(result, capacitor_q, s_sc, p)
     result.assumptions.append(ASSUMPTION_SUPPLY)
     result.sources.append(SOURCE_RESONANCE)
 
 
-def _detuning(result, reactor, s_sc, capacitor_q, frequency):
+def _out_of_proportion(order, share, capacitor_q, s_sc):
+    """The resonance check's words for a bank out of proportion to its supply."""
+    if order < FUNDAMENTAL_ORDER:
+        return (f"h = {order:.3g} is below the fundamental: the bank ({fq(capacitor_q, 'var')}) "
+                f"exceeds the short-circuit power at the bus ({fq(s_sc, 'VA')}). That is no "
+                "harmonic resonance but a bank far too large for this supply; check the "
+                "transformer's kVA and %Z, or the fault level.")
+    return (f"The bank is {share:.3g} % of the short-circuit power at the bus, more than the "
+            f"{BANK_SHARE_MAX_PCT:g} % a bank usually is (common practice): its resonance "
+            f"(h = {order:.3g}) sits low among the harmonics and switching it in moves the "
+            "voltage far; the figures are not judged OK. Check the supply data or split the bank.")
+
+
+def _detuning(result, reactor, s_sc, capacitor_q, frequency, in_proportion):
     """The detuned bank's tuning and resonance orders and its check; returns p [-]."""
     suggested = reactor is None
     p_pct = SUGGESTED_DETUNING_PCT if suggested else reactor
@@ -270,7 +372,12 @@ def _detuning(result, reactor, s_sc, capacitor_q, frequency):
     result.step("Parallel resonance of the detuned bank with the supply (moves below n)",
                 "h' = 1 / √(p + (1 − p) Q_c / S_sc)", f"= {detuned:.3g}")
     lowest = SIX_PULSE_HARMONICS[0]
-    if detuned < lowest * (1.0 - RESONANCE_BAND):
+    if not in_proportion:
+        result.check("detuned", "warn",
+                     f"With p = {100 * p:g} % the resonance would be at h' = {detuned:.3g}, but "
+                     "the bank is out of proportion to its supply (see the resonance check): "
+                     "not judged.")
+    elif detuned < lowest * (1.0 - RESONANCE_BAND):
         result.check("detuned", "pass",
                      f"With p = {100 * p:g} % the bank is inductive above "
                      f"{fq(n * frequency, 'Hz')} and its resonance (h' = {detuned:.3g}) is below "
@@ -283,7 +390,7 @@ def _detuning(result, reactor, s_sc, capacitor_q, frequency):
     return p
 
 
-def _series_without_supply(result, inputs):
+def _series_without_supply(result, inputs, pf_target):
     """The chart when no supply is given: the bank's reactive power against the target pf."""
     targets = [inputs["pf_now"] + (1.0 - inputs["pf_now"]) * k / 100.0 for k in range(101)]
     result.series = {
@@ -292,7 +399,7 @@ def _series_without_supply(result, inputs):
         "y": [{"label": "Capacitor reactive power", "unit": "var",
                "values": [capacitor_reactive_power(inputs["power"], inputs["pf_now"], t)
                           for t in targets]}],
-        "marks": [{"axis": "x", "value": inputs["pf_target"], "label": "Target"}],
+        "marks": [{"axis": "x", "value": pf_target, "label": "Target"}],
     }
 
 
@@ -301,7 +408,8 @@ def _capacitor_voltage(result, voltage, p, rated_v, show):
     u_c = capacitor_voltage(voltage, p)
     if show:
         result.output("capacitor_v", u_c)
-        result.step("Voltage on the capacitors with the series reactor", "U_C = U / (1 − p)",
+        result.step("Voltage on the capacitors with the series reactor: their rated voltage must "
+                    "be at least this", "U_C = U / (1 − p)",
                     f"= {fq(voltage, 'V')} / (1 − {p:g}) = {fq(u_c, 'V')}")
     limit = f"{100 * IEEE18_RMS_VOLTAGE:g} %"
     if rated_v is None:
@@ -322,6 +430,74 @@ def _capacitor_voltage(result, voltage, p, rated_v, show):
                  f"Capacitors rated {fq(rated_v, 'V')} see {fq(u_c, 'V')} ({100 * ratio:.3g} %): "
                  f"{words} (IEEE Std 18-2012: {limit} rms voltage, {100 * IEEE18_CURRENT:g} % "
                  "current continuously).")
+
+
+def _rating(result, inputs, capacitor_q, voltage, p):
+    """What the capacitors' nameplate says: their kvar at their rated voltage (entered), or at
+    the voltage a detuned bank puts on them. Nothing for a plain bank without a rating."""
+    rated_v = inputs["capacitor_rated_v"]
+    if not p and rated_v is None:
+        return
+    rated_q = capacitor_rated_reactive_power(capacitor_q, voltage, p, rated_v)
+    result.output("capacitor_rated_q", rated_q)
+    if rated_v is None:
+        result.step(f"The capacitors' own reactive power at the {fq(voltage / (1 - p), 'V')} "
+                    "they run at (what their nameplate must give there)", "Q_C = Q_c / (1 − p)",
+                    f"= {fq(capacitor_q, 'var')} / (1 − {p:g}) = {fq(rated_q, 'var')}; the "
+                    f"reactor takes the difference, {fq(rated_q - capacitor_q, 'var')}")
+    else:
+        result.step(f"Nameplate reactive power of capacitors rated {fq(rated_v, 'V')} that "
+                    f"deliver Q_c at {fq(voltage, 'V')}", "Q_r = Q_c (1 − p) (U_r / U)²",
+                    f"= {fq(capacitor_q, 'var')} × (1 − {p:g}) × ({fq(rated_v, 'V')} / "
+                    f"{fq(voltage, 'V')})² = {fq(rated_q, 'var')}")
+    if p:
+        result.sources.append("Detuned bank: C = (1 − p) × the plain value, U_C = U/(1 − p), "
+                              "Q_r = Q_c (1 − p)(U_r/U)²: " + DETUNED_BANK_READ + ".")
+
+
+def _implausible(inputs, result, before_va, line_before):
+    """Why these inputs or results lie outside real banks and supplies ([] when they do not)."""
+    reasons = []
+    voltage, frequency = inputs["voltage"], inputs["frequency_hz"]
+    if inputs["pf_now"] < PRESENT_PF_MIN:
+        reasons.append(f"a present power factor of {inputs['pf_now']:g}: loaded plant runs at 0.5 "
+                       f"to 0.9, below {PRESENT_PF_MIN:g} only idling magnetising loads or a "
+                       "meter read with the wrong sign or CT (common practice)")
+    if voltage < SUPPLY_VOLTAGE_MIN_V:
+        reasons.append(f"a {fq(voltage, 'V')} supply: power-factor capacitors are built for "
+                       f"supplies of {SUPPLY_VOLTAGE_MIN_V:g} V and up (IEEE Std 18 units from "
+                       "216 V; 120 V units exist — common practice)")
+    low, high = SUPPLY_FREQUENCY_RANGE_HZ
+    if not low <= frequency <= high:
+        reasons.append(f"{fq(frequency, 'Hz')}: power capacitors are rated for 50 Hz or 60 Hz "
+                       f"supplies (IEEE Std 18 scope); {low:g} to {high:g} Hz is usual")
+    if line_before > LINE_CURRENT_MAX_A:
+        reasons.append(f"the load draws {fq(line_before, 'A')} at {fq(voltage, 'V')}: "
+                       f"switchboards and switchgear mains stop at about {LINE_CURRENT_MAX_A:g} "
+                       "A (UL 891, IEEE C37.20.1 — from memory), so a load this large is "
+                       "supplied at a higher voltage")
+    xfmr_va, z_pct = inputs["xfmr_kva"], inputs["xfmr_z_pct"]
+    if xfmr_va is not None:
+        if before_va > TRANSFORMER_OVERLOAD_MAX * xfmr_va:
+            reasons.append(f"the load ({fq(before_va, 'VA')}) is {before_va / xfmr_va:.3g} × the "
+                           f"{fq(xfmr_va, 'VA')} transformer: loads beyond "
+                           f"{100 * TRANSFORMER_OVERLOAD_MAX:g} % exceed the loading guides' "
+                           "emergency limits (IEEE Std C57.91 — from memory); check the "
+                           "transformer's rating")
+        z_low, z_high = TRANSFORMER_Z_RANGE_PCT
+        if not z_low <= z_pct <= z_high:
+            reasons.append(f"a transformer impedance of {z_pct:g} %: real transformers are "
+                           f"{z_low:g} % to {z_high:g} % (common practice)")
+    value = {name: value for name, (value, _) in result.outputs.items()}
+    if "short_circuit_va" in value:
+        share = 100.0 * value["capacitor_q"] / value["short_circuit_va"]
+        if share > BANK_SHARE_MAX_PCT:
+            reasons.append(f"the bank is {share:.3g} % of the short-circuit power at the bus "
+                           f"(resonance order {value['resonance_order']:.3g}): banks "
+                           f"are a few percent, at most about {BANK_SHARE_MAX_PCT:g} %, and the "
+                           "estimates ΔU ≈ Q_c/S_sc and h = √(S_sc/Q_c) describe such banks — "
+                           "common practice")
+    return reasons
 
 
 def _resonance_series(result, capacitor_q, s_sc, p):
@@ -349,26 +525,28 @@ CALCULATOR = Calculator(
             "loss saved, and the bank's resonance with the supply transformer.",
     group="Power quality",
     inputs=(
-        Input("power", "Load real power", "quantity", unit="kW", default=150, minimum=0,
-              min_exclusive=True, maximum=1e6, help="Average demand in kW (or hp of input)."),
-        Input("pf_now", "Present power factor", "quantity", unit="", default=0.78, minimum=0,
-              min_exclusive=True, maximum=1, help="From the meter or the utility bill."),
-        Input("pf_target", "Target power factor", "quantity", unit="", default=0.95, minimum=0,
-              min_exclusive=True, maximum=1,
-              help=f"{USUAL_TARGET_PF:g} to {HIGH_TARGET_PF:g} lagging is usual."),
+        Input("power", "Load real power", "quantity", unit="kW", default=150,
+              minimum=MIN_POWER_KW, maximum=1e6,
+              help="Average demand in kW (or hp of input)."),
+        Input("pf_now", "Present power factor", "quantity", unit="", default=0.78,
+              minimum=MIN_POWER_FACTOR, maximum=1, help="From the meter or the utility bill."),
+        Input("pf_target", "Target power factor", "quantity", unit="", optional=True,
+              minimum=0, min_exclusive=True, maximum=1,
+              help=f"{USUAL_TARGET_PF:g} to {HIGH_TARGET_PF:g} lagging is usual; blank: "
+                   f"{USUAL_TARGET_PF:g}."),
         Input("voltage", "System voltage", "quantity", unit="V", default=480, minimum=1,
               maximum=69000, region_defaults={"iec": 400},
               suggest="voltages", help="Line-to-line for three-phase."),
         _inputs.phases(),
         _inputs.frequency(maximum=1000),
         Input("xfmr_kva", "Supply transformer rating", "quantity", unit="kVA", default=500,
-              optional=True, minimum=0, min_exclusive=True, maximum=1e6,
+              optional=True, minimum=MIN_TRANSFORMER_KVA, maximum=1e6,
               region_defaults={"iec": 630}, help="Blank if unknown (then give the fault level)."),
         Input("xfmr_z_pct", "Transformer impedance", "quantity", unit="%", default=5.75,
-              optional=True, minimum=0, min_exclusive=True, maximum=30,
+              optional=True, minimum=MIN_IMPEDANCE_PCT, maximum=30,
               region_defaults={"iec": 4}, help="%Z from the nameplate."),
         _inputs.source_power(
-            label="Fault level of the supply",
+            label="Fault level of the supply", minimum=MIN_SOURCE_MVA, min_exclusive=False,
             help="Ahead of the transformer (or at the bus if no transformer is given); blank: "
                  "infinite."),
         Input("pf_now_sense", "Present power factor is", "choice", default="lagging",
@@ -376,7 +554,7 @@ CALCULATOR = Calculator(
         Input("pf_target_sense", "Target power factor is", "choice", default="lagging",
               choices=SENSES, advanced=True),
         Input("reactor_pct", "Detuning reactor p", "quantity", unit="%", optional=True,
-              minimum=0, min_exclusive=True, maximum=20, advanced=True,
+              minimum=MIN_REACTOR_PCT, maximum=20, advanced=True,
               help="X_L/X_C of the series reactor (5.67, 7 or 14 % are usual); blank: "
                    f"{SUGGESTED_DETUNING_PCT:g} % suggested."),
         Input("capacitor_rated_v", "Capacitor rated voltage", "quantity", unit="V",
@@ -404,7 +582,10 @@ CALCULATOR = Calculator(
         Output("tuning_order", "Tuning order of the detuned bank", ""),
         Output("tuned_hz", "Tuning frequency of the detuned bank", "Hz"),
         Output("detuned_resonance_order", "Resonance order with the reactor", ""),
-        Output("capacitor_v", "Capacitor voltage with the reactor", "V"),
+        Output("capacitor_v", "Capacitor voltage with the reactor (their least rated voltage)",
+               "V"),
+        Output("capacitor_rated_q", "Capacitors' nameplate reactive power at their rated voltage",
+               "var"),
     ),
     compute=_view,
 )

@@ -7,7 +7,8 @@ import cmath
 import math
 
 from calc import cautions, rlc
-from calc.calculators._circuits import CHART_POINTS
+from calc.calculators._circuits import CHART_POINTS, part_reasons, q_reason
+from calc.calculators._plausibility import plausibility
 from calc.spec import Calculator, Input, Output, Result
 from calc.units import format_quantity as fq
 
@@ -34,6 +35,14 @@ MARK_SPACING = 0.05
 
 # Below this angle [°] the impedance is called resistive in the display.
 RESISTIVE_ANGLE = 0.05
+
+# The lowest frequency the form takes, a millihertz: below it 1/(ωC) and the tuning L or C
+# overflow for the smallest parts, and no circuit of these parts is used there.
+MIN_FREQUENCY_HZ = 1e-3
+
+# Above about 1 GHz a part's size nears a tenth of the wavelength (3 cm at 1 GHz): R, L and C are
+# no longer lumped and the formulas stop holding — common practice.
+LUMPED_MAX_HZ = 1e9
 
 SOURCES = (
     "f0, Q, bandwidth and half-power frequencies: C. K. Alexander and M. N. O. Sadiku, "
@@ -133,8 +142,8 @@ def _view(inputs):
                     "I_L = I_C = Q V / R", f"= {q:.4g} × {fq(v / r, 'A')} = {fq(q * v / r, 'A')}")
     target = inputs["target_hz"]
     if target is not None:
-        c_new = rlc.capacitance_for_resonance(target, l)
-        l_new = rlc.inductance_for_resonance(target, c)
+        c_new = rlc.resonant_partner(target, l)
+        l_new = rlc.resonant_partner(target, c)
         result.output("c_for_target", c_new)
         result.output("l_for_target", l_new)
         result.step(f"Capacitance that tunes this L to {fq(target, 'Hz')}", "C = 1 / ((2πf)² L)",
@@ -143,6 +152,7 @@ def _view(inputs):
                     f"= {fq(l_new, 'H')}")
 
     _checks(result, series, q, bandwidth / f0, v, r)
+    plausibility(result, _implausible(r, l, c, q, f0, frequency))
     result.assumptions += ASSUMPTIONS
     result.sources += SOURCES
     result.cautions += [CAUTION_MAGNIFICATION, *cautions.COMMON]
@@ -155,6 +165,18 @@ def _view(inputs):
         "marks": _sweep_marks(f0, f1, f2, frequency),
     }
     return result
+
+
+def _implausible(r, l, c, q, f0, frequency):
+    """Why these parts or results lie outside real circuits ([] when they do not)."""
+    reasons = part_reasons(r, l, c) + [q_reason(q)]
+    evaluated = () if frequency == f0 else (("the frequency evaluated", frequency),)
+    for what, value in (("the resonant frequency", f0), *evaluated):
+        if value > LUMPED_MAX_HZ:
+            reasons.append(f"{what}, {fq(value, 'Hz')}, is above {fq(LUMPED_MAX_HZ, 'Hz')}: parts "
+                           "are no longer lumped there (their size nears a tenth of the "
+                           "wavelength) and these formulas stop holding (common practice)")
+    return [reason for reason in reasons if reason]
 
 
 def _checks(result, series, q, relative_width, v, r):
@@ -191,12 +213,12 @@ CALCULATOR = Calculator(
               maximum=1e4),
         Input("c", "Capacitance C", "quantity", unit="F", default="0.4 µF", minimum=1e-15,
               maximum=100),
-        Input("source_v", "Supply voltage (rms)", "quantity", unit="V", default=10, minimum=0,
-              min_exclusive=True, maximum=1e6),
+        Input("source_v", "Supply voltage (rms)", "quantity", unit="V", default=10, minimum=1e-6,
+              maximum=1e6),
         Input("frequency_hz", "Frequency to evaluate", "quantity", unit="Hz", optional=True,
-              minimum=0, min_exclusive=True, maximum=1e10, help="Blank: the resonant frequency."),
+              minimum=MIN_FREQUENCY_HZ, maximum=1e10, help="Blank: the resonant frequency."),
         Input("target_hz", "Target resonant frequency", "quantity", unit="Hz", optional=True,
-              minimum=0, min_exclusive=True, maximum=1e10,
+              minimum=MIN_FREQUENCY_HZ, maximum=1e10,
               help="Gives the C (with this L) or the L (with this C) that resonates there."),
     ),
     outputs=(

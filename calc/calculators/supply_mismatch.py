@@ -3,8 +3,12 @@ what transformer does it need to do so?"""
 
 from calc import cautions, induction_motors, transformers
 from calc.calculators import _inputs
+from calc.calculators._plausibility import plausibility
 from calc.calculators._transformers import (
+    LV_WINDING_CURRENT_MAX_A,
     SOURCE_IDEAL,
+    SUPPLY_V_MIN,
+    WINDING_V_MIN,
     ideal_relations,
     next_standard_rating,
     ratio_display,
@@ -28,6 +32,17 @@ MAGNETIC_LOADS = ("motor", "magnetic")  # their flux follows V/f
 # MG 1-12.44 motor tolerance).
 DIRECT_OK_PCT = 5.0
 DIRECT_LIMIT_PCT = 10.0
+
+# General-purpose dry-type ratings below the distribution lists [kVA], for small equipment on a
+# foreign supply. Common practice (from memory).
+SMALL_KVA_1PH = (0.05, 0.1, 0.15, 0.25, 0.5, 0.75, 1, 1.5, 2, 3)
+SMALL_KVA_3PH = (6.0,)  # 3 and 9 kVA are already in the three-phase list
+
+# Supply frequencies in use [Hz]: 50 and 60 Hz public supplies (IEC 60196, from memory), 16.7 and
+# 25 Hz railway and old industrial supplies, 400 Hz aircraft and ground power (common practice);
+# a frequency within FREQUENCY_MATCH of one of them is taken as that one.
+FREQUENCIES_HZ = (16.7, 25.0, 50.0, 60.0, 400.0)
+FREQUENCY_MATCH = 0.02
 
 EXCITATION_PCT = 100 * transformers.EXCITATION_LIMIT  # 105 %
 SLACK = 1e-12  # a value exactly at a limit is within it despite rounding
@@ -57,7 +72,7 @@ CAUTIONS = (
 
 def _rating_table(phases):
     """Ratings [kVA] for an adapter transformer: the small dry-type sizes, then the preferred."""
-    small = transformers.SMALL_KVA_3PH if phases == 3 else transformers.SMALL_KVA_1PH
+    small = SMALL_KVA_3PH if phases == 3 else SMALL_KVA_1PH
     return sorted(small + standard_ratings(phases, "na"))
 
 
@@ -156,6 +171,32 @@ def _steps(result, inputs, target_v, flux_equipment, flux_direct, design, rating
                     f"({100 * frequency_ratio:.3g} %)")
 
 
+def _plausibility(result, inputs, primary_a, secondary_a, target_v):
+    reasons = []
+    supply_v, equipment_v = inputs["supply_v"], inputs["equipment_v"]
+    if supply_v < SUPPLY_V_MIN:
+        reasons.append(f"a supply of {fq(supply_v, 'V')} is below any public supply (from "
+                       f"{SUPPLY_V_MIN:g} V: 100 V less 10 %, IEC 60038; from memory)")
+    if equipment_v < WINDING_V_MIN:
+        reasons.append(f"equipment rated {fq(equipment_v, 'V')} is below any transformer "
+                       f"secondary (from {WINDING_V_MIN:g} V, common practice)")
+    for name, label in (("supply_hz", "supply"), ("equipment_hz", "equipment's rated"),
+                        ("transformer_hz", "transformer's rated")):
+        hertz = inputs[name]
+        if hertz is not None and not any(abs(hertz / f - 1.0) <= FREQUENCY_MATCH
+                                         for f in FREQUENCIES_HZ):
+            listed = ", ".join(f"{f:g}" for f in FREQUENCIES_HZ)
+            reasons.append(f"a {label} frequency of {hertz:g} Hz is none in use ({listed} Hz; "
+                           "IEC 60196 and common practice)")
+    for where, volts, amps in (("supply", supply_v, primary_a), ("equipment", target_v,
+                                                                 secondary_a)):
+        if amps > LV_WINDING_CURRENT_MAX_A:
+            reasons.append(f"{fq(amps, 'A')} at {fq(volts, 'V')} on the {where} side is beyond "
+                           f"low-voltage equipment (up to about {fq(LV_WINDING_CURRENT_MAX_A, 'A')}"
+                           "; UL 891, IEEE C37.20.1, from memory)")
+    plausibility(result, reasons)
+
+
 def _mismatch_view(inputs):
     equipment_v, equipment_hz = inputs["equipment_v"], inputs["equipment_hz"]
     supply_v, supply_hz = inputs["supply_v"], inputs["supply_hz"]
@@ -189,6 +230,7 @@ def _mismatch_view(inputs):
     _steps(result, inputs, target_v, flux_equipment, flux_direct, design, rating)
     ideal_relations(result, supply_v, target_v, phases, rating, show_turns=False)
     _checks(result, inputs, target_v, flux_equipment, flux_direct, frequency_ratio)
+    _plausibility(result, inputs, primary_a, secondary_a, target_v)
 
     result.assumptions += [
         "Flux ∝ V / f (E = 4.44 f N Φ); the transformer itself is rated for the supply "

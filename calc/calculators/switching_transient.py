@@ -6,7 +6,8 @@ damping, the value at any time, the peak and the settling time, with the wavefor
 import math
 
 from calc import cautions, rlc
-from calc.calculators._circuits import chart_times, format_energy
+from calc.calculators._circuits import chart_times, format_energy, part_reasons, q_reason
+from calc.calculators._plausibility import plausibility
 from calc.errors import InputError
 from calc.rlc import SETTLING_BAND, TWO_PI
 from calc.spec import Calculator, Input, Output, Result
@@ -32,6 +33,11 @@ ENVELOPE_ZETA = 0.8
 LIGHT_DAMPING_ZETA = 0.01
 
 SETTLING_PCT = 100.0 * SETTLING_BAND
+
+# The largest currents of low-voltage installations are faults of about 100 kA (the breaking
+# capacity of the largest breakers — common practice): a switching transient beyond it means R
+# is missing a part of the loop (wiring, the source's own resistance).
+PEAK_CURRENT_MAX_A = 1e5
 
 SOURCES = (
     "First- and second-order step and natural responses: J. W. Nilsson and S. A. Riedel, "
@@ -123,6 +129,7 @@ def _view(inputs):
                 "W = ½ L I² (rl), ½ C V² (rc, rlc)", f"= {format_energy(stored)}")
 
     _checks(result, circuit, position, so, time, settle, v, r, l, c)
+    plausibility(result, _implausible(so, r, l, c, top.value))
     result.assumptions += [
         *ASSUMPTIONS,
         f"The response is the {name}" + (" (the quantity a coil's pull-in and release follow)."
@@ -141,6 +148,18 @@ def _view(inputs):
     result.series = _chart(circuit, position, so, r, l, c, v, tau, tau_dominant, time,
                            reference)
     return result
+
+
+def _implausible(so, r, l, c, peak_current):
+    """Why these parts or results lie outside real circuits ([] when they do not)."""
+    reasons = part_reasons(r, l, c)
+    if so is not None and so.damping_ratio > 0.0:
+        reasons.append(q_reason(1.0 / (2.0 * so.damping_ratio)))
+    if peak_current > PEAK_CURRENT_MAX_A:
+        reasons.append(f"a peak current of {fq(peak_current, 'A')}: beyond the "
+                       f"{fq(PEAK_CURRENT_MAX_A, 'A')} of the largest low-voltage faults (common "
+                       "practice); include the wiring's and the source's resistance in R")
+    return [reason for reason in reasons if reason]
 
 
 def _first_order_steps(result, inputs, tau, point, percent, ref_text, state, time):
@@ -280,8 +299,8 @@ CALCULATOR = Calculator(
               minimum=1e-12, maximum=1e4, help="Not used for RC; blank if not in the circuit."),
         Input("c", "Capacitance C", "quantity", unit="F", default="100 µF", optional=True,
               minimum=1e-15, maximum=100, help="Not used for RL; blank if not in the circuit."),
-        Input("source_v", "DC source voltage", "quantity", unit="V", default=24, minimum=0,
-              min_exclusive=True, maximum=1e6),
+        Input("source_v", "DC source voltage", "quantity", unit="V", default=24, minimum=1e-6,
+              maximum=1e6),
         Input("t", "Time after switching", "quantity", unit="s", optional=True, minimum=0,
               maximum=1e6, help="Blank: one time constant."),
     ),

@@ -5,8 +5,10 @@ import math
 
 from calc import transformers
 from calc.calculators import _inputs
+from calc.calculators._plausibility import plausibility
 from calc.calculators._transformers import (
     connection_input,
+    equipment_reasons,
     ratio_display,
     rating_input,
     standard_ratings,
@@ -114,6 +116,8 @@ def _currents_view(inputs):
                              f"{fq(volts, 'V')} is a usual line-to-neutral voltage; three-phase "
                              "inputs are line-to-line (for 120/208 V enter 208 V, for 277/480 V "
                              "enter 480 V, for 230/400 V enter 400 V).")
+    plausibility(result, equipment_reasons(apparent_power, phases, (("primary", primary_v),
+                                                                   ("secondary", secondary_v))))
 
     result.assumptions += [
         "Rated (nameplate) currents: rated kVA divided by rated voltage; the secondary voltage "

@@ -3,9 +3,12 @@ most efficient, and what do its losses cost a year?"""
 
 from calc import cautions, transformers
 from calc.calculators import _inputs
+from calc.calculators._plausibility import outside, plausibility
 from calc.calculators._transformers import (
     SOURCE_IDEAL,
+    equipment_reasons,
     ideal_relations,
+    load_reason,
     rating_input,
     voltage_input,
 )
@@ -21,6 +24,11 @@ SECONDS_PER_HOUR = 3600.0  # exact
 # IEC 60076-7; from memory): a load over 100 % of rating is flagged.
 RATED_LOAD = 1.0
 SLACK = 1e-12  # a load of exactly 100 % is within the rating despite rounding
+# Total losses at rated load, as a fraction of the rating, of real transformers: from about 0.2 %
+# for the largest power transformers to a few percent for small dry-types (common practice; the
+# efficiency levels of DOE 10 CFR 431.196 and EU 548/2014 lie well inside, from memory). Outside
+# this range the loss figures are mistyped (watts for kilowatts) or belong to another unit.
+LOSS_FRACTION_RANGE = (0.001, 0.10)
 
 SOURCE_EFFICIENCY = (
     "η = P_out / (P_out + P₀ + k² P_k); maximum at k = √(P₀ / P_k): S. J. Chapman, Electric "
@@ -72,6 +80,22 @@ def _steps(result, inputs, load, output, losses, eta, k_max, eta_max):
                 f"η_max = {100 * eta_max:.4g} %")
 
 
+def _plausibility(result, inputs, heavy):
+    apparent_power, p0, pk = inputs["kva"], inputs["no_load_w"], inputs["load_loss_w"]
+    reasons = equipment_reasons(apparent_power, int(inputs["phases"]),
+                                (("primary", inputs["primary_v"]),
+                                 ("secondary", inputs["secondary_v"])))
+    fraction = (p0 + pk) / apparent_power
+    if outside(fraction, *LOSS_FRACTION_RANGE):
+        low, high = (100 * f for f in LOSS_FRACTION_RANGE)
+        reasons.append(f"losses at rated load of {fq(p0 + pk, 'W')} are {100 * fraction:.3g} % of "
+                       f"the {fq(apparent_power, 'VA')} rating; real transformers lose {low:g}-"
+                       f"{high:g} % (common practice): check the loss figures' units and the "
+                       "rating")
+    reasons.append(load_reason(100 * heavy, "the heaviest load"))
+    plausibility(result, reasons)
+
+
 def _efficiency_view(inputs):
     apparent_power, p0, pk = inputs["kva"], inputs["no_load_w"], inputs["load_loss_w"]
     pf, load = inputs["pf"], inputs["load_pct"] / 100.0
@@ -118,6 +142,7 @@ def _efficiency_view(inputs):
                  ("." if within else f": above {100 * RATED_LOAD:g} % the windings run hotter "
                   "and age faster; check the loading guide (IEEE C57.91, IEC 60076-7; from "
                   "memory)."))
+    _plausibility(result, inputs, heavy)
     result.check("maximum_efficiency", "pass",
                  f"Maximum efficiency at {100 * k_max:.3g} % load; distribution transformers are "
                  "usually designed for it at 35-50 % (common practice), power transformers nearer "

@@ -5,10 +5,13 @@ import math
 
 from calc import cautions, transformers
 from calc.calculators import _inputs
+from calc.calculators._plausibility import outside, plausibility
 from calc.calculators._transformers import (
     SOURCE_IDEAL,
     Z_PCT_MAX,
+    equipment_reasons,
     ideal_relations,
+    load_reason,
     rating_input,
     voltage_input,
 )
@@ -20,8 +23,16 @@ from calc.units import format_quantity as fq
 # exact phasor value (common practice: a tenth of a point is below any meter's reading error).
 FORMULA_AGREEMENT_PCT = 0.1
 
+# Plausibility. A supply held this far from rated is a fault or a wrong rating, not a tap job:
+# ANSI C84.1 Range B spans about −13 % to +6 % (from memory); IEC 61000-2-2 / EN 50160 allow
+# ± 10 % (read, as quoted: see transformers.VOLTAGE_BAND_PCT) [% of rated].
+SUPPLY_PCT_RANGE = (85.0, 110.0)
+# A transformer's rated secondary is its system's nominal voltage or a few percent above it (420 V
+# for 400 V, 480 V for 460 V; common practice): a system voltage further off is a mix-up [%].
+SYSTEM_MATCH_PCT = 10.0
+
 BAND_NA, BAND_IEC = transformers.VOLTAGE_BAND_PCT["na"], transformers.VOLTAGE_BAND_PCT["iec"]
-BAND_TEXT = f"ANSI C84.1 Range A ± {BAND_NA:g} %; IEC 60038 ± {BAND_IEC:g} %"
+BAND_TEXT = f"ANSI C84.1 Range A ± {BAND_NA:g} %; IEC 61000-2-2 / EN 50160 ± {BAND_IEC:g} %"
 
 
 def _signed(tap):
@@ -121,6 +132,27 @@ def _checks(result, system_v, band, present, loaded_v, tap, in_band, tapped_v, n
                                     "exact value."))
 
 
+def _plausibility(result, inputs, r_pct, x_pct, system_v):
+    secondary_v = inputs["secondary_v"]
+    reasons = equipment_reasons(inputs["kva"], int(inputs["phases"]),
+                                (("primary", inputs["primary_v"]), ("secondary", secondary_v)),
+                                math.hypot(r_pct, x_pct))
+    reasons.append(load_reason(inputs["load_pct"]))
+    supply = inputs["supply_pct"]
+    if outside(supply, *SUPPLY_PCT_RANGE):
+        reasons.append(f"a supply at {supply:g} % of rated is outside {SUPPLY_PCT_RANGE[0]:g}-"
+                       f"{SUPPLY_PCT_RANGE[1]:g} % (beyond ANSI C84.1 Range B, from memory, and "
+                       "the ± 10 % of IEC 61000-2-2 / EN 50160): a supply that far off is a "
+                       "fault, not a tap setting")
+    off = abs(system_v / secondary_v - 1.0) * 100.0
+    if off > SYSTEM_MATCH_PCT:
+        reasons.append(f"the nominal system voltage {fq(system_v, 'V')} is {off:.3g} % from the "
+                       f"rated secondary {fq(secondary_v, 'V')}: a rated secondary is within a "
+                       f"few percent of its system's (more than {SYSTEM_MATCH_PCT:g} % is a "
+                       "mix-up; common practice)")
+    plausibility(result, reasons)
+
+
 def _regulation_view(inputs):
     r_pct, x_pct, from_z = _impedance_components(inputs)
     pf, leading = inputs["pf"], inputs["leading"]
@@ -175,6 +207,7 @@ def _regulation_view(inputs):
     ideal_relations(result, primary_v, secondary_v, phases, apparent_power)
     _checks(result, system_v, band, present, loaded_v, tap, in_band, tapped_v, no_load_v, approx,
             exact)
+    _plausibility(result, inputs, r_pct, x_pct, system_v)
 
     result.assumptions += [
         "Series impedance only (no magnetising branch); %R and %X on the transformer's rating, "
@@ -183,7 +216,8 @@ def _regulation_view(inputs):
         "alike (per unit).",
         f"The supply (primary) voltage is held at {100 * supply:g} % of rated whatever the load.",
         f"Band ± {band:g} % of {fq(system_v, 'V')}: ANSI C84.1 Range A is ± {BAND_NA:g} % at the "
-        f"service, IEC 60038 is ± {BAND_IEC:g} % (from memory); the equipment may need less.",
+        f"service and IEC 61000-2-2 / EN 50160 give ± {BAND_IEC:g} % (both read, as quoted at "
+        "powerstandards.com); the equipment may need less.",
     ]
     result.sources += [SOURCE_REGULATION, SOURCE_TAPS,
                        "Exact loaded voltage: phasor solution as in calc.voltage_drop "

@@ -5,10 +5,12 @@ import math
 
 from calc import transformers
 from calc.calculators import _inputs
+from calc.calculators._plausibility import plausibility
 from calc.calculators._transformers import (
     SOURCE_IDEAL,
     Z_PCT_MAX,
     connection_input,
+    equipment_reasons,
     ideal_relations,
     next_standard_rating,
     standard_ratings,
@@ -37,6 +39,7 @@ SOURCE_RATINGS = (
     "Preferred ratings: IEEE/ANSI C57.12 series (North America); IEC 60076 and EU Regulation "
     "548/2014 Annex I Table I.1 ratings (IEC practice) — from memory for IEC."
 )
+MOTOR_DIP_LIMIT_PCT = 15.0  # start dip at the motor's bus: the usual design limit (common practice)
 DIP_FORMULA = "ΔV ≈ S_LR / (S_LR + S_T × 100 / %Z)"
 
 
@@ -164,6 +167,9 @@ def _size_view(inputs):
                      "currents add eddy-current and stray loss, so a transformer runs hotter than "
                      "its kVA suggests. Specify a K-factor rated unit or derate by IEEE C57.110 "
                      "(from memory), and size the neutral for triplen harmonics.")
+    plausibility(result, equipment_reasons(rating, phases, (("primary", primary_v),
+                                                            ("secondary", secondary_v)),
+                                           inputs["z_pct"]))
 
     result.assumptions += [
         f"The load is {'a balanced three-phase' if phases == 3 else 'a single-phase'} load at the "
@@ -209,13 +215,14 @@ CALCULATOR = Calculator(
         Input("load_kva", "Load apparent power", "quantity", unit="kVA", default=60,
               optional=True, minimum=0.001, maximum=1_000_000,
               region_defaults={"iec": 350},
-              help="The load in kVA; or leave blank and give kW or amps below."),
+              help="The load in kVA; or leave blank and give kW or amps below.", group="load"),
         Input("load_kw", "Load real power (instead of kVA)", "quantity", unit="kW", optional=True,
               minimum=0.001, maximum=1_000_000,
-              help="With the power factor below; the kVA field must be blank."),
+              help="With the power factor below; the kVA field must be blank.", group="load"),
         Input("load_a", "Load current (instead of kVA)", "quantity", unit="A", optional=True,
               minimum=0.001, maximum=200_000,
-              help="Line current at the secondary voltage; the kVA field must be blank."),
+              help="Line current at the secondary voltage; the kVA field must be blank.",
+              group="load"),
         Input("pf", "Power factor (for kW)", "quantity", unit="", default=0.85, minimum=0.05,
               maximum=1),
         _inputs.phases(),
@@ -238,9 +245,9 @@ CALCULATOR = Calculator(
               default=5.75, minimum=0, min_exclusive=True, maximum=Z_PCT_MAX, advanced=True,
               region_defaults={"iec": 6}, help="Nameplate %Z if known."),
         Input("max_dip_pct", "Motor start dip limit", "quantity", unit="%",
-              default=transformers.MOTOR_DIP_LIMIT_PCT,
+              default=MOTOR_DIP_LIMIT_PCT,
               minimum=0, min_exclusive=True, maximum=50, advanced=True,
-              help=f"{transformers.MOTOR_DIP_LIMIT_PCT:g} % at the motor's bus is the usual "
+              help=f"{MOTOR_DIP_LIMIT_PCT:g} % at the motor's bus is the usual "
                    "design limit (common practice)."),
         connection_input(),
     ),

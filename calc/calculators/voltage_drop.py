@@ -44,6 +44,10 @@ def _view(inputs):
     result.output("loss_w", run.loss_w)
     result.output("current", run.current)
     result.output("drop_pct_approx", run.approx_drop_pct)
+    if run.leg_drop_v is not None:
+        result.output("drop_leg_v", run.leg_drop_v)
+        result.output("drop_leg_pct", run.leg_drop_pct)
+        result.output("end_leg_v", run.leg_end_v)
     describe_run(result, inputs, size, length, z, run)
     result.series = [drop_series(inputs, size, length, inputs["max_drop_pct"]),
                      _profile_series(inputs, length, z)]
@@ -58,12 +62,15 @@ CALCULATOR = Calculator(
     group="Conductors",
     inputs=run_inputs(),
     outputs=(
-        Output("drop_v", "Voltage drop", "V"),
-        Output("drop_pct", "Voltage drop", "%"),
-        Output("end_v", "Voltage at the load", "V"),
+        Output("drop_v", "Voltage drop (line to line on three-phase and 120/240 V)", "V"),
+        Output("drop_pct", "Voltage drop (of the nominal voltage)", "%"),
+        Output("end_v", "Voltage at the load (line to line on three-phase and 120/240 V)", "V"),
         Output("loss_w", "Conductor loss", "W"),
         Output("current", "Load current", "A"),
         Output("drop_pct_approx", "Drop by the approximation", "%"),
+        Output("drop_leg_v", "120/240 V: drop on the heavier leg, line to neutral", "V"),
+        Output("drop_leg_pct", "120/240 V: drop on the heavier leg (of half the nominal)", "%"),
+        Output("end_leg_v", "120/240 V: heavier leg's voltage to neutral at the load", "V"),
     ),
     compute=_view,
 )

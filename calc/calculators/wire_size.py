@@ -6,7 +6,13 @@ smaller size (which fails) and the next two larger sizes for comparison.
 """
 
 from calc import conductors, units
-from calc.calculators._conductors import describe_run, drop_series, run_inputs, solve
+from calc.calculators._conductors import (
+    describe_run,
+    drop_series,
+    read_run,
+    run_inputs,
+    solve,
+)
 from calc.errors import InputError, ParameterError
 from calc.spec import Calculator, Output, Result
 from calc.units import format_quantity as fq
@@ -33,6 +39,7 @@ def _candidate_sizes(system, material):
 
 def _view(inputs):
     limit, length = inputs["max_drop_pct"], inputs["length"]
+    read_run(inputs)  # the load's errors are the user's, not a size's
     tried = []
     for size in _candidate_sizes(inputs["sizes"], inputs["material"]):
         try:
@@ -40,7 +47,7 @@ def _view(inputs):
         except InputError:
             continue  # this size collapses (or has no table value); a larger one may not
         tried.append((size, z, run))
-        if run.drop_pct <= limit:
+        if run.limit_drop_pct <= limit:
             break
     else:
         largest = tried[-1][0].label if tried else "the largest size"
@@ -53,10 +60,12 @@ def _view(inputs):
     result.output("drop_pct", run.drop_pct)
     result.output("drop_v", run.drop_v)
     result.output("current", run.current)
+    if run.leg_drop_pct is not None:
+        result.output("drop_leg_pct", run.leg_drop_pct)
     if len(tried) > 1:
         smaller, _, smaller_run = tried[-2]
         result.step("The next smaller size does not meet the limit", f"{smaller.label}",
-                    f"= {smaller_run.drop_pct:.3g} % > {limit:g} %")
+                    f"= {smaller_run.limit_drop_pct:.3g} % > {limit:g} %")
     following = []
     for bigger in _candidate_sizes(inputs["sizes"], inputs["material"]):
         if bigger.area_m2 > size.area_m2 and len(following) < COMPARED_LARGER:
@@ -66,7 +75,8 @@ def _view(inputs):
                 pass
     for bigger, bigger_run in following:
         result.step("For comparison, a larger size", bigger.label,
-                    f"= {bigger_run.drop_pct:.3g} % drop, {fq(bigger_run.loss_w, 'W')} loss")
+                    f"= {bigger_run.limit_drop_pct:.3g} % drop, "
+                    f"{fq(bigger_run.loss_w, 'W')} loss")
     describe_run(result, inputs, size, length, z, run)
     result.cautions.insert(0, CAUTION_DROP_ONLY)
     result.series = drop_series(inputs, size, length, limit)
@@ -85,6 +95,7 @@ CALCULATOR = Calculator(
         Output("drop_pct", "Voltage drop with it", "%"),
         Output("drop_v", "Voltage drop with it", "V"),
         Output("current", "Load current", "A"),
+        Output("drop_leg_pct", "120/240 V: drop on the heavier leg, line to neutral", "%"),
     ),
     compute=_view,
 )

@@ -25,13 +25,39 @@ function prefix(root) {
   return index === 0 ? "" : `${index}.`;
 }
 
+// Alternatives (a load as current, power or kVA) share a data-group: once one holds a value,
+// the others are emptied, so a default the user did not type never conflicts with one they did.
+function groupSiblings(element) {
+  const field = element.closest(".fb-field[data-group]");
+  if (!field) return [];
+  const root = element.closest("[data-calculator]");
+  return Array.from(root.querySelectorAll(`.fb-field[data-group="${CSS.escape(field.dataset.group)}"] [name]`))
+    .filter((other) => other !== element);
+}
+
+function clearSiblings(element) {
+  if (!element.value.trim()) return;
+  for (const other of groupSiblings(element)) if (other.value !== "") other.value = "";
+}
+
+export function linkGroups(root) {
+  root.querySelector(".fb-form").addEventListener("input", (event) => {
+    if (event.target.name) clearSiblings(event.target);
+  });
+}
+
 export function applyParams(root, search) {
   const params = new URLSearchParams(search);
   const own = prefix(root);
   let applied = 0;
+  const set = [];
   for (const element of fields(root)) {
     const value = params.get(own + element.name);
-    if (value !== null) { setValue(element, value); applied += 1; }
+    if (value !== null) { setValue(element, value); applied += 1; set.push(element); }
+  }
+  // A link that gives one alternative and not the others: the others do not keep defaults.
+  for (const element of set) {
+    if (groupSiblings(element).every((other) => !set.includes(other))) clearSiblings(element);
   }
   return applied;
 }
