@@ -2,6 +2,7 @@
 
 import json
 import math
+import os
 import subprocess
 import sys
 
@@ -193,4 +194,94 @@ def test_cli_errors_exit_2_with_json_and_no_traceback(args):
 
 def test_cli_help_exits_0():
     status, out, _ = cli("--help")
-    assert status == 0 and "python -m calc list" in out
+    assert status == 0 and "python -m calc [--region na|iec] list" in out
+
+
+# ---- regions, alternatives and long text (issue 11) -----------------------------------------
+
+def _fake(monkeypatch, inputs, compute=None):
+    def echo(values):
+        result = Result()
+        result.output("x", 1.0)
+        result.check("seen", "pass", json.dumps({k: v for k, v in values.items()}, default=str))
+        result.check("units", "pass", json.dumps(values.typed_units))
+        return result
+    fake = Calculator("fake", "Fake", "For tests", "Tests", tuple(inputs), (Output("x", "X", ""),),
+                      compute or echo)
+    monkeypatch.setitem(api.REGISTRY, "fake", fake)
+
+
+def _seen(result):
+    assert result["ok"], result
+    return json.loads(result["checks"][0]["message"])
+
+
+def test_an_alternative_given_means_its_siblings_take_no_default(monkeypatch):
+    # Issue 11 item 8: a default the user did not type must never conflict with one they did.
+    _fake(monkeypatch, [
+        Input("current", "Current", "quantity", unit="A", default=16, optional=True, group="load"),
+        Input("power", "Power", "quantity", unit="kW", optional=True, group="load"),
+        Input("length", "Length", "quantity", unit="m", default=10),
+    ])
+    assert _seen(api.run("fake", {"power": "5 kW"})) == {"current": None, "power": 5000.0,
+                                                        "length": 10.0}
+    assert _seen(api.run("fake", {}))["current"] == 16.0  # nothing given: the default stands
+    assert _seen(api.run("fake", {"current": 20, "power": ""}))["current"] == 20.0
+    # A blank alternative does not count as given.
+    assert _seen(api.run("fake", {"power": " "}))["current"] == 16.0
+
+
+def test_omitted_inputs_take_the_region_s_default(monkeypatch):
+    _fake(monkeypatch, [Input("f", "Frequency", "quantity", unit="Hz", default=60,
+                              region_defaults={"iec": 50})])
+    assert _seen(api.run("fake", {}))["f"] == 60.0
+    assert _seen(api.run("fake", {}, region="iec"))["f"] == 50.0
+    assert _seen(api.run("fake", {}, region="na"))["f"] == 60.0
+    assert _seen(api.run("fake", {"f": 400}, region="iec"))["f"] == 400.0  # typed wins
+    refused = api.run("fake", {}, region="mars")
+    assert refused["ok"] is False and "na, iec" in refused["errors"][0]["message"]
+
+
+def test_views_learn_the_unit_the_user_typed(monkeypatch):
+    _fake(monkeypatch, [Input("power", "Power", "quantity", unit="kW", default=5),
+                        Input("length", "Length", "quantity", unit="m", default=10)])
+    assert _seen(api.run("fake", {"power": "10 hp", "length": "150 ft"})) is not None
+    units_seen = json.loads(api.run("fake", {"power": "10 hp"})["checks"][1]["message"])
+    assert units_seen == {"power": "hp", "length": "m"}
+
+
+def test_long_text_is_refused_and_never_echoed_whole():
+    # Issue 11 item 11: a 50,000-character value came back whole in its error message.
+    long_value, long_name = "1" * 50000, "x" * 3000
+    result = api.run("voltage-drop", {"voltage": long_value, long_name: 1})
+    text = api.dumps(result)
+    assert result["ok"] is False and len(text) < 2000
+    by_field = {e["field"][:3]: e for e in result["errors"]}
+    assert "too long" in by_field["vol"]["message"] and "50000 characters" in by_field["vol"]["value"]
+    assert "3000 characters" in by_field["xxx"]["message"]
+    for calculator_id in api.REGISTRY:
+        assert len(api.dumps(api.run(calculator_id, {"zz": long_value}))) < 3000
+
+
+def test_text_at_the_length_limit_is_read():
+    # Just inside the limit the value is read (and judged on its own merits).
+    padded = "480" + " " * (api.MAX_TEXT_CHARS - 3)
+    result = api.run("transformer-currents", {"primary_v": padded})
+    assert result["ok"], result
+    over = api.run("transformer-currents", {"primary_v": padded + " "})
+    assert over["ok"] is False and "too long" in over["errors"][0]["message"]
+
+
+def test_cli_region_option_and_team_file(tmp_path):
+    na = json.loads(cli("run", "transformer-currents")[1])["outputs"]["secondary_a"]["value"]
+    status, out, _ = cli("--region", "iec", "run", "transformer-currents")
+    iec = json.loads(out)["outputs"]["secondary_a"]["value"]
+    assert status == 0 and iec != na
+    team = tmp_path / "team.yml"
+    team.write_text("# a team\nregion: iec  # IEC practice\n", encoding="utf-8")
+    completed = subprocess.run(ROOT_CMD + ["run", "transformer-currents"], capture_output=True,
+                               text=True, encoding="utf-8", check=False,
+                               env={**os.environ, "FLUXBOOK_TEAM_FILE": str(team)})
+    assert json.loads(completed.stdout)["outputs"]["secondary_a"]["value"] == iec
+    status, out, _ = cli("--region", "mars", "list")
+    assert status == 2 and "na, iec" in json.loads(out)["errors"][0]["message"]
