@@ -7,9 +7,13 @@ site's CSP (build/serve.py), drives headless Debian Chromium on calculators/tran
   bare       our own page (/__bench__/, only in the temporary copy): a module worker that calls
              loadPyodide() from the site's Pyodide folder, the floor for booting Pyodide this way.
   cold       fresh context (no HTTP cache, no service worker): navigation start to
-             data-state="done", the first result; the service worker precaches meanwhile.
-  warm       same context once <html data-offline="stored">: server stopped, context offline,
-             reload; says whether the service worker answered the navigation.
+             data-state="done", the first result; the service worker precaches meanwhile and
+             the worker saves its engine snapshot after the result (its size and time shown).
+  warm       same context once <html data-offline="stored"> and the snapshot is saved: server
+             stopped, context offline, reload, twice: "snapshot" restores the saved engine,
+             "normal" boots in full (the snapshot cache deleted first, so a new one is saved
+             before the next reload); the order alternates from run to run. Each visit's
+             data-engine-start is checked; says whether the service worker answered.
   recompute  engine ready, --changes kva values filled in, each timed from the input event to
              data-state="done" with a new output; includes the page's debounce (DEBOUNCE_MS in
              fluxbook.js), also shown subtracted. p95 is nearest-rank.
@@ -18,7 +22,8 @@ Reading it: ms on the page's performance.now() clock (0 = navigation start), mar
 MutationObserver from add_init_script (injected over the DevTools protocol: the CSP allows it).
 "wall" is Python's clock around goto/reload + wait, the fallback if in-page marks are missing
 (the report says so). "x bare" = a visit's median / the bare boot's median: near 1.0 means
-Pyodide's own start is nearly all of the wait. One untimed bare boot warms the browser first;
+Pyodide's own start is nearly all of the wait. Target (issue 12): a warm offline visit from the
+snapshot reaches its first result in <= 0.25 x bare. One untimed bare boot warms the browser first;
 runs are interleaved. The load average is printed: compare runs on the same idle machine.
 """
 
@@ -47,6 +52,22 @@ PAGE = "calculators/transformer-currents/"
 DONE = '[data-calculator][data-state="done"]'
 TIMEOUT_MS = 120000
 BENCH = "__bench__"
+SNAPSHOT_TARGET = 0.25  # warm snapshot start / bare loadPyodide(), at most
+SNAPSHOT_CACHE = "fluxbook-engine-snapshot"
+# The page's own engine (same module URL, same instance): its state, e.g. the snapshot's news.
+ENGINE_STATE_JS = """async () => {
+  const script = document.querySelector('script[type=module][src*="fluxbook.js"]').src;
+  const { engine } = await import(new URL("engine.js", script).href);
+  return engine().state;
+}"""
+# Waits until the engine reports its snapshot saved (or not); the news, or null after 2 minutes.
+WAIT_SNAPSHOT_JS = ENGINE_STATE_JS.replace("return engine().state;", """const until = Date.now() + 120000;
+  while (Date.now() < until) {
+    const news = engine().state.snapshot;
+    if (news && news.state !== "failed") return news;
+    await new Promise((resolve) => setTimeout(resolve, 100));
+  }
+  return null;""")
 
 MARKS_JS = """const marks = (window.__fbBench = {});
 new MutationObserver((records) => { const now = performance.now(); for (const r of records) {
@@ -148,14 +169,39 @@ def timed(page, action):
     return (wall, None, "wall", wall), response
 
 
-def cold_and_warm(browser, site):
+def wait_snapshot_saved(page):
+    news = page.evaluate(WAIT_SNAPSHOT_JS)
+    if not news or news["state"] != "saved":
+        sys.exit(f"the engine snapshot was not saved: {news}")
+    return news["detail"]
+
+
+def warm_visit(page, start):
+    """Reload offline with a snapshot start or a normal one; (timing, from the service worker)."""
+    if start == "normal":
+        page.evaluate(f"caches.delete({SNAPSHOT_CACHE!r})")
+    timing, response = timed(page, page.reload)
+    used = page.get_attribute("[data-calculator]", "data-engine-start")
+    if used != start:
+        sys.exit(f"a warm visit meant to start from {start!r} started from {used!r}")
+    if start == "normal":
+        wait_snapshot_saved(page)  # for the next snapshot visit; not timed
+    return timing, bool(response and response.from_service_worker)
+
+
+def cold_and_warm(browser, site, order):
+    """(cold, {start: warm timing}, [answered by the service worker], snapshot news)."""
     with fresh_page(browser, marks=True) as (context, page):
         with serving(site) as (base, _):
             cold, _ = timed(page, lambda: page.goto(base + PAGE))
             page.wait_for_selector('html[data-offline="stored"]', state="attached")
+            saved = wait_snapshot_saved(page)
         context.set_offline(True)  # and the server is gone: set_offline misses the SW's fetches
-        warm, response = timed(page, page.reload)
-    return cold, warm, bool(response and response.from_service_worker)
+        warm, from_sw = {}, []
+        for start in order:
+            warm[start], answered = warm_visit(page, start)
+            from_sw.append(answered)
+    return cold, warm, from_sw, saved
 
 
 def recompute(browser, base, changes):
@@ -208,7 +254,8 @@ def main(argv=None):
     args = parser.parse_args(argv)
     if args.site and not (Path(args.site) / "sw.js").exists():
         parser.error(f"{args.site} is not a built site (no sw.js)")
-    bare, cold, warm, from_sw = [], [], [], []
+    bare, cold, from_sw, saved = [], [], [], []
+    warm = {"snapshot": [], "normal": []}
     with contextlib.ExitStack() as stack:
         workdir = Path(stack.enter_context(tempfile.TemporaryDirectory(prefix="fluxbook-bench-")))
         site, pyodide = prepare_site(args, workdir)
@@ -223,17 +270,22 @@ def main(argv=None):
         stack.callback(browser.close)
         with serving(site) as (base, _):
             bare_boot(browser, base)  # warm-up, not counted
-        for _ in range(args.runs):  # interleaved, so a slow spell of the machine hits all three
+        for run in range(args.runs):  # interleaved, so a slow spell of the machine hits all
             with serving(site) as (base, _):
                 bare.append(bare_boot(browser, base))
-            for row, value in zip((cold, warm, from_sw), cold_and_warm(browser, site)):
-                row.append(value)
+            order = ("snapshot", "normal") if run % 2 == 0 else ("normal", "snapshot")
+            cold_run, warm_run, answered, news = cold_and_warm(browser, site, order)
+            cold.append(cold_run)
+            for start, timing in warm_run.items():
+                warm[start].append(timing)
+            from_sw.extend(answered)
+            saved.append(news)
         with serving(site) as (base, _):
             latencies = recompute(browser, base, args.changes)
         version = browser.version
 
     load = ", ".join(f"{v:.1f}" for v in os.getloadavg())
-    clocks = {r[2] for r in cold + warm}
+    clocks = {r[2] for r in cold + warm["snapshot"] + warm["normal"]}
     median_bare = statistics.median(b["ready"] for b in bare)
     med, top = statistics.median(latencies), p95(latencies)
     total = groups["own"] + groups["pyodide"] + groups["theme"]
@@ -245,14 +297,24 @@ def main(argv=None):
     print("\nBare loadPyodide() in a module worker (own page, same origin and CSP, no cache)")
     print(line("navigation -> Pyodide ready", (b["ready"] for b in bare)))
     print(line("loadPyodide() call alone", (b["loadMs"] for b in bare)))
-    for title, rows in (("Cold first visit (fresh context: empty cache, no service worker)", cold),
-                        ("Warm offline visit (server stopped, context offline, reload)", warm)):
+    for title, rows in (
+        ("Cold first visit (fresh context: empty cache, no service worker; full start)", cold),
+        ("Warm offline visit, snapshot start (server stopped, offline, reload)", warm["snapshot"]),
+        ("Warm offline visit, normal start (snapshot deleted first)", warm["normal"]),
+    ):
         print("\n" + title)
         print(line("navigation -> first result", (r[0] for r in rows), median_bare))
         if clocks == {"page"}:
             print(line("navigation -> engine ready", (r[1] or 0 for r in rows), median_bare))
         print(line("wall clock (goto/reload + wait)", (r[3] for r in rows)))
-    print(f"  navigation answered by the service worker: {sum(from_sw)}/{len(from_sw)} runs")
+    print(f"  navigation answered by the service worker: {sum(from_sw)}/{len(from_sw)} visits")
+    snap = statistics.median(r[0] for r in warm["snapshot"])
+    normal = statistics.median(r[0] for r in warm["normal"])
+    ratio = snap / median_bare
+    print(f"\nSnapshot start: first result {snap:.0f} ms = {ratio:.2f} x bare loadPyodide() "
+          f"({median_bare:.0f} ms), {snap / normal:.2f} x the normal warm start ({normal:.0f} ms); "
+          f"target <= {SNAPSHOT_TARGET:.2f} x bare: {'met' if ratio <= SNAPSHOT_TARGET else 'NOT MET'}")
+    print(f"  snapshot saved after the cold visit's first result: {'; '.join(saved)}")
     print(f"\nRecompute per input change ({len(latencies)} kva values, engine ready, page clock)\n"
           f"  {'input event -> new result':<33}median {med:6.0f} ms   p95 {top:4.0f} ms"
           f"   (min {min(latencies):.0f}, max {max(latencies):.0f})\n"

@@ -27,11 +27,14 @@ def on_config(config):
         raise PluginError(str(error)) from None
     _check_pyodide_version()
     _state["config"] = settings
+    _state["calc_zip"] = package_calc.calc_zip_bytes()  # one archive for the file and its checksum
     config.extra["fluxbook"] = {
         **settings.for_page(),
         "version": __version__,
         "pyodide_dir": paths.PYODIDE_SITE_DIR + "/",
         "calc_zip": paths.CALC_ZIP_SITE_PATH,
+        # Keys the engine's memory snapshot on the device: a new calc.zip never restores an old one.
+        "calc_zip_sha256": package_calc.sha256(_state["calc_zip"]),
     }
     if settings.organisation:
         config.site_name = f"Fluxbook · {settings.organisation}"
@@ -50,7 +53,7 @@ def _check_pyodide_version():
 def on_files(files, config):
     for path, builder in reference.pages().items():
         files.append(File.generated(config, path, content=builder(_state["config"])))
-    files.append(File.generated(config, paths.CALC_ZIP_SITE_PATH, content=package_calc.calc_zip_bytes()))
+    files.append(File.generated(config, paths.CALC_ZIP_SITE_PATH, content=_state["calc_zip"]))
     for name in paths.PYODIDE_FILES:
         source = paths.NODE_MODULES / "pyodide" / name
         files.append(File.generated(config, f"{paths.PYODIDE_SITE_DIR}/{name}", abs_src_path=str(source)))

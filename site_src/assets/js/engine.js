@@ -3,48 +3,84 @@
 import * as messages from "./messages.js";
 
 const BOOT_TIMEOUT_MS = 120000; // a slow phone can take tens of seconds; a hang must still end
+// A restore from the device's snapshot takes well under a second here and a few on a slow phone.
+// One that has not finished by then is taken as hung: a fresh worker discards the snapshot and
+// starts in full.
+const RESTORE_TIMEOUT_MS = 20000;
 
 class Engine {
   constructor() {
     this.nextId = 1;
     this.pending = new Map();
     this.listeners = new Set();
-    this.state = { stage: "runtime", detail: "" };
+    // start: "snapshot" or "normal" once ready; snapshot: the last news of the device's snapshot.
+    this.state = { stage: "runtime", detail: "", start: "", snapshot: null };
     this.failure = null; // set once the worker has failed: every later run is refused at once
-    const indexURL = document.querySelector('meta[name="fluxbook-pyodide"]').content;
-    const calcZipURL = document.querySelector('meta[name="fluxbook-calc-zip"]').content;
-    this.worker = new Worker(new URL("./calc-worker.js", import.meta.url), { type: "module" });
+    const meta = (name) => document.querySelector(`meta[name="${name}"]`);
+    // Absolute URLs: the worker resolves relative ones against its own location.
+    const absolute = (name) => new URL(meta(name).content, document.baseURI).href;
+    this.indexURL = absolute("fluxbook-pyodide");
+    this.calcZipURL = absolute("fluxbook-calc-zip");
+    const sha = meta("fluxbook-calc-zip-sha256");
+    this.calcSha256 = sha ? sha.content : ""; // none: no snapshot (keyed by it)
     this.ready = new Promise((resolve, reject) => {
+      this.resolveReady = resolve;
       this.rejectReady = reject;
-      const timer = setTimeout(() => this.fail("the engine did not start within 2 minutes"),
-        BOOT_TIMEOUT_MS);
-      this.clearBootTimer = () => clearTimeout(timer);
-      this.worker.addEventListener("message", (event) => {
-        const message = event.data;
-        if (message.type === "stage") {
-          if (message.stage === "failed") { this.fail(message.detail); return; }
-          this.setStage(message.stage, message.detail);
-          if (message.stage === "ready") { clearTimeout(timer); resolve(message.detail); }
-        } else if (message.type === "reply") {
-          const waiter = this.pending.get(message.id);
-          if (!waiter) return;
-          this.pending.delete(message.id);
-          if (message.error) waiter.reject(message.error);
-          else waiter.resolve(message.result);
-        }
-      });
-      // An uncaught error in the worker, before or after it was ready, ends it: say so.
-      this.worker.addEventListener("error", (event) => {
-        this.fail(event.message || "the worker stopped with an error");
-      });
-      this.worker.addEventListener("messageerror", () => {
-        this.fail("the worker sent a message the page could not read");
-      });
     });
     this.ready.catch(() => {}); // failures are shown through the stage listeners
-    // Absolute URLs: the worker resolves relative ones against its own location.
-    this.worker.postMessage(messages.boot(new URL(indexURL, document.baseURI).href,
-      new URL(calcZipURL, document.baseURI).href));
+    const timer = setTimeout(() => this.fail("the engine did not start within 2 minutes"),
+      BOOT_TIMEOUT_MS);
+    this.clearBootTimer = () => clearTimeout(timer);
+    this.restoreTimer = null;
+    this.spawn("use");
+  }
+
+  // Start a worker and boot it; snapshot: "use", or "discard" after a restore that hung.
+  spawn(snapshot) {
+    const worker = new Worker(new URL("./calc-worker.js", import.meta.url), { type: "module" });
+    this.worker = worker;
+    worker.addEventListener("message", (event) => {
+      if (worker !== this.worker) return; // a worker given up on
+      const message = event.data;
+      if (message.type === "stage") this.onStageMessage(message);
+      else if (message.type === "snapshot") {
+        this.setState({ snapshot: { state: message.state, detail: message.detail } });
+      } else if (message.type === "reply") {
+        const waiter = this.pending.get(message.id);
+        if (!waiter) return;
+        this.pending.delete(message.id);
+        if (message.error) waiter.reject(message.error);
+        else waiter.resolve(message.result);
+      }
+    });
+    // An uncaught error in the worker, before or after it was ready, ends it: say so.
+    worker.addEventListener("error", (event) => {
+      if (worker === this.worker) this.fail(event.message || "the worker stopped with an error");
+    });
+    worker.addEventListener("messageerror", () => {
+      if (worker === this.worker) this.fail("the worker sent a message the page could not read");
+    });
+    worker.postMessage(messages.boot(this.indexURL, this.calcZipURL,
+      { calcSha256: this.calcSha256, snapshot }));
+  }
+
+  onStageMessage(message) {
+    if (message.stage === "failed") { this.fail(message.detail); return; }
+    clearTimeout(this.restoreTimer);
+    if (message.stage === "restore") {
+      this.restoreTimer = setTimeout(() => this.restoreHung(), RESTORE_TIMEOUT_MS);
+    }
+    this.setState({ stage: message.stage, detail: message.detail, start: message.start || "" });
+    if (message.stage === "ready") { this.clearBootTimer(); this.resolveReady(message.detail); }
+  }
+
+  // No run is ever sent before ready, so a hung worker can be replaced without losing one.
+  restoreHung() {
+    if (this.failure || this.state.stage !== "restore") return;
+    this.worker.terminate();
+    this.setState({ stage: "runtime", detail: "", snapshot: { state: "failed",
+      detail: "a restore from it did not finish in time" } });
+    this.spawn("discard");
   }
 
   // The worker cannot answer any more (it failed to start, or died after it was ready): show
@@ -53,14 +89,15 @@ class Engine {
     if (this.failure) return;
     this.failure = new Error(detail);
     this.clearBootTimer();
+    clearTimeout(this.restoreTimer);
     this.rejectReady(this.failure);
-    this.setStage("failed", detail);
+    this.setState({ stage: "failed", detail });
     for (const waiter of this.pending.values()) waiter.reject(this.failure);
     this.pending.clear();
   }
 
-  setStage(stage, detail) {
-    this.state = { stage, detail };
+  setState(change) {
+    this.state = { ...this.state, ...change };
     for (const listener of this.listeners) listener(this.state);
   }
 
@@ -72,12 +109,21 @@ class Engine {
 
   // A run asked for before the engine is ready waits for it; after a failure it is refused.
   async run(calculator, inputs) {
+    return this.request((id) => messages.run(id, calculator, inputs));
+  }
+
+  // A job function of calc.jobs by name (calc.jobs.CALLS), JSON data in and out, as run.
+  async call(name, argument) {
+    return this.request((id) => messages.call(id, name, argument));
+  }
+
+  async request(makeMessage) {
     await this.ready;
     if (this.failure) throw this.failure;
     const id = this.nextId++;
     return new Promise((resolve, reject) => {
       this.pending.set(id, { resolve, reject });
-      this.worker.postMessage(messages.run(id, calculator, inputs));
+      this.worker.postMessage(makeMessage(id));
     });
   }
 }
@@ -90,3 +136,4 @@ export function engine() {
 }
 
 export const STAGES = messages.STAGES;
+export const STARTS = messages.STARTS;

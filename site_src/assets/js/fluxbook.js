@@ -1,9 +1,10 @@
 // Page entry: wires every calculator on the page to the shared engine. Material's instant
 // navigation swaps pages without reloading, so set-up runs from document$ on every page.
-import { engine, STAGES } from "./engine.js";
+import { engine, STAGES, STARTS } from "./engine.js";
 import * as forms from "./forms.js";
 import { renderResult, clearResult } from "./results.js";
 import { startOffline, onOffline, reportStorage } from "./pwa.js";
+import * as jobs from "./jobs.js"; // save to job, the single-calculation print, the jobs page
 
 const DEBOUNCE_MS = 250;
 const OFFLINE_WORDS = {
@@ -16,8 +17,9 @@ function setState(root, state) {
   root.dataset.state = state;
 }
 
-function engineText(stage, detail) {
-  if (stage === "ready") return "Calculator engine ready";
+function engineText(stage, detail, start) {
+  // engine start (issue 12): say which start was used
+  if (stage === "ready") return "Calculator engine ready" + (STARTS[start] ? ` (${STARTS[start]})` : "");
   if (stage === "failed" && engineWasReady) {
     return `Calculator engine stopped (${detail}). Reload the page to start it again.`;
   }
@@ -28,11 +30,12 @@ function engineText(stage, detail) {
   return `Calculator engine starting: ${STAGES[stage] || stage}…`;
 }
 
-function showEngine(root, { stage, detail }) {
+function showEngine(root, { stage, detail, start }) {
   const status = root.querySelector(".fb-engine__text");
   const engineState = stage === "ready" ? "ready" : stage === "failed" ? "failed" : "starting";
   root.dataset.engine = engineState;
-  status.dataset.base = engineText(stage, detail);
+  if (start) root.dataset.engineStart = start; // engine start (issue 12): "snapshot" | "normal"
+  status.dataset.base = engineText(stage, detail, start);
   status.textContent = status.dataset.base + (engineState === "ready" ? OFFLINE_WORDS[root.fbOffline] || "" : "");
   if (engineState === "failed") setState(root, "error");
 }
@@ -63,6 +66,7 @@ async function compute(root, roots) {
   if (result.ok) {
     forms.clearMessages(root);
     renderResult(root, result);
+    jobs.afterResult(root, inputs, result);
     setState(root, "done");
   } else {
     clearResult(root);
@@ -95,6 +99,7 @@ function wire(root, roots) {
   if (root.fbWired) return;
   root.fbWired = true;
   forms.applyParams(root, window.location.search);
+  forms.linkGroups(root);
   let timer = null;
   const schedule = () => {
     clearTimeout(timer);
@@ -105,7 +110,8 @@ function wire(root, roots) {
   form.addEventListener("change", schedule);
   form.addEventListener("submit", (event) => { event.preventDefault(); compute(root, roots); });
   root.querySelector('[data-action="copy-link"]').addEventListener("click", () => copyLink(root));
-  root.querySelector('[data-action="print"]').addEventListener("click", () => window.print());
+  root.querySelector('[data-action="print"]').addEventListener("click", () => jobs.printCalculation(root));
+  jobs.wireSave(root);
   const running = engine();
   root.fbOffline = offlineState;
   listenToEngine(running);
@@ -137,6 +143,7 @@ let currentRoots = [];
 let offlineState = "checking";
 
 function initPage() {
+  jobs.initPage();
   currentRoots = Array.from(document.querySelectorAll("[data-calculator]"));
   for (const root of currentRoots) wire(root, currentRoots);
   const report = document.querySelector("[data-offline-report]");

@@ -1,24 +1,48 @@
 // Message shapes between a page and the calculator worker (one place, so both sides agree).
 //
-// page -> worker   {type: "boot", indexURL, calcZipURL}         once, right after start
+// page -> worker   {type: "boot", indexURL, calcZipURL, calcSha256, snapshot}   once, at start
 //                  {type: "run", id, calculator, inputs}         inputs: {name: text or number}
-// worker -> page   {type: "stage", stage, detail}                start-up progress (STAGES)
+//                  {type: "call", id, name, argument}            a job function (calc.jobs.CALLS)
+// worker -> page   {type: "stage", stage, detail, start?}        start-up progress (STAGES);
+//                                                                "ready" carries start (STARTS)
 //                  {type: "reply", id, result}                   the contract's JSON, parsed
 //                  {type: "reply", id, error: {type, message}}   the worker itself failed
+//                  {type: "snapshot", state, detail}             the device's engine snapshot
+//                                                                (SNAPSHOT_STATES), for status
+// boot.snapshot: "use" (restore a saved snapshot, else boot and save one), "discard" (a restore
+// never finished: delete the saved one, boot normally, save none for this release), "off".
 // Calculators are named by registered id and inputs travel as JSON data: no Python source is
 // ever built from what a user typed.
 
 export const STAGES = Object.freeze({
   runtime: "Loading the Python runtime",
+  restore: "Restoring the engine saved on this device",
   package: "Unpacking the calculators",
   import: "Importing the calculators",
   ready: "Ready",
   failed: "Failed",
 });
 
-export const boot = (indexURL, calcZipURL) => ({ type: "boot", indexURL, calcZipURL });
+// How a ready engine was started.
+export const STARTS = Object.freeze({
+  snapshot: "quick start from this device's snapshot",
+  normal: "full start",
+});
+
+export const SNAPSHOT_STATES = Object.freeze({
+  saved: "a snapshot of the engine was saved on this device for a quicker start next time",
+  failed: "the saved snapshot could not be used; it was deleted and the engine started in full",
+  unavailable: "no snapshot could be saved on this device",
+});
+
+export const boot = (indexURL, calcZipURL, { calcSha256 = "", snapshot = "use" } = {}) => ({
+  type: "boot", indexURL, calcZipURL, calcSha256, snapshot,
+});
 export const run = (id, calculator, inputs) => ({ type: "run", id, calculator, inputs });
-export const stage = (name, detail = "") => ({ type: "stage", stage: name, detail });
+export const call = (id, name, argument) => ({ type: "call", id, name, argument });
+export const stage = (name, detail = "", start = undefined) =>
+  (start ? { type: "stage", stage: name, detail, start } : { type: "stage", stage: name, detail });
+export const snapshot = (state, detail = "") => ({ type: "snapshot", state, detail });
 export const reply = (id, result) => ({ type: "reply", id, result });
 export const failure = (id, error) => ({
   type: "reply",
