@@ -44,6 +44,9 @@ SERIES_FLUX_RANGE = (0.5, 1.5)
 RUN_STEPS = 1200
 MAX_STEPS = 2500
 MIN_STEPS = 400  # a run that settles in fewer steps is run again on a finer step
+# An armature inductance below this is neglected [H]: its L/R is nanoseconds against a run-up of
+# seconds, and dividing by it (a subnormal float) would overflow.
+NEGLECTED_INDUCTANCE = 1e-9
 STEP_RATE = 0.5
 SETTLED = 0.002  # within 0.2 % of the steady speed and current counts as settled
 SETTLE_MARGIN = 1.1  # the chart runs on 10 % past settling
@@ -546,7 +549,7 @@ def run_up(motor, sections=(), switch_current=None):
     """
     totals = stage_resistances(motor.armature_r, list(sections))
     steadies = [steady_state(motor, total) or (0.0, 0.0) for total in totals]
-    quasi = motor.inductance <= 0.0
+    quasi = motor.inductance < NEGLECTED_INDUCTANCE
     estimate, electrical_steps = _plan(motor, totals, steadies, quasi)
     if not quasi and electrical_steps > MAX_STEPS:
         quasi = True  # the electrical transient is over in a tiny fraction of the run-up

@@ -152,6 +152,27 @@ def test_any_input_gives_a_result_or_field_errors(inputs):
             assert error["field"] in inputs and error["message"]
 
 
+
+# Values at the edges of a float: the smallest subnormal once reached a ZeroDivisionError in
+# back-emf (speed_ref), conductor (frequency_hz) and the fault calculators (%Z) because each input
+# was only "more than 0". Every quantity input of every calculator, alone, must give a result or
+# a field error.
+EDGE_VALUES = ("5e-324", "1e-300", "-5e-324", "1e300")
+
+
+@pytest.mark.parametrize("calculator", list(api.REGISTRY.values()), ids=lambda c: c.id)
+def test_edge_of_float_values_never_give_an_internal_error(calculator):
+    for field in calculator.inputs:
+        if field.kind != "quantity":
+            continue
+        for value in EDGE_VALUES:
+            result = api.run(calculator.id, {field.name: value})
+            text = api.dumps(result)
+            assert "internal error" not in text, (field.name, value, text[-200:])
+            if not result["ok"]:
+                assert {e["field"] for e in result["errors"]} <= {f.name for f in calculator.inputs}
+
+
 # ---- the command line ---------------------------------------------------------------------
 
 def test_cli_list():

@@ -416,8 +416,9 @@ def test_running_already_above_the_class_limit_fails():
     ({"start_limit": 1.01}, "start_limit", "more than 20 steps"),
     ({"armature_r": 0}, "armature_r", "at least 0.0001 ohm"),
     ({"motor_type": "compound"}, "motor_type", "choose one of"),
-    ({"speed_ref": 0}, "speed_ref", "greater than 0"),
-    ({"inertia": -1}, "inertia", "greater than 0"),
+    ({"speed_ref": 0}, "speed_ref", "at least 1"),
+    ({"speed_ref": 5e-324}, "speed_ref", "at least 1"),  # once a ZeroDivisionError
+    ({"inertia": -1}, "inertia", "at least 1e-05"),
     ({"inductance": "5 ohm"}, "inductance", "inductance"),
     ({"load": "pump"}, "load", "choose one of"),
     ({"insulation_class": "C"}, "insulation_class", "choose one of"),
@@ -428,9 +429,9 @@ def test_running_already_above_the_class_limit_fails():
     ({"ambient_c": 150}, "ambient_c", "at most 100"),
     ({"rated_rise": 0}, "rated_rise", "greater than 0"),
     ({"speed_at": -5}, "speed_at", "at least 0"),
-    ({"field_r": 0}, "field_r", "greater than 0"),
+    ({"field_r": 0}, "field_r", "at least 0.01"),
     ({"current_ref": -1}, "current_ref", "at least 0 A"),
-    ({"rated_current": 0}, "rated_current", "greater than 0 A"),
+    ({"rated_current": 0}, "rated_current", "at least 0.001 A"),
     ({"voltage": 0}, "voltage", "at least 1 V"),
 ])
 def test_back_emf_errors(inputs, field, words):

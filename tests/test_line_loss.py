@@ -655,7 +655,7 @@ def test_defaults_are_plausible_and_say_their_conductor_data():
 @pytest.mark.parametrize("inputs, field, words", [
     ({"power": 0}, "power", "greater than 0 kW"),
     ({"pf": 1.2}, "pf", "at most 1"),
-    ({"voltage": "0 V"}, "voltage", "greater than 0 V"),
+    ({"voltage": "0 V"}, "voltage", "at least 1 V"),
     ({"alt_voltage": "50 kV"}, "alt_voltage", "at most 35000 V"),
     ({"operating_hours": "9000 h"}, "operating_hours", "at most 8784 h"),
     ({"tariff": -0.1}, "tariff", "at least 0"),

@@ -376,7 +376,7 @@ def test_size_duty_labels_accept_matching_voltages():
 @pytest.mark.parametrize("inputs, field, words", [
     ({"pf": 0, "load_kva": "", "load_kw": 10}, "pf", "at least 0.05"),
     ({"growth_pct": -5}, "growth_pct", "at least 0"),
-    ({"z_pct": 0}, "z_pct", "greater than 0 %"),
+    ({"z_pct": 0}, "z_pct", "at least 0.1 %"),
     ({"z_pct": 31}, "z_pct", "at most 30 %"),
     ({"ratings": "jis"}, "ratings", "choose one of"),
     ({"motor_lr_kva": "50 kW"}, "motor_lr_kva", "apparent power"),

@@ -221,7 +221,7 @@ def test_fault_source_given_twice():
 
 
 @pytest.mark.parametrize("inputs, field, words", [
-    ({"z_pct": 0}, "z_pct", "greater than 0 %"),
+    ({"z_pct": 0}, "z_pct", "at least 0.1 %"),
     ({"z_pct": "30.5 %"}, "z_pct", "at most 30 %"),
     ({"z_pct": -2}, "z_pct", "out of range"),
     ({"x_r": 0}, "x_r", "at least 0.1"),

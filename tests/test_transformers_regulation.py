@@ -203,7 +203,7 @@ def test_regulation_labels_follow_the_constants():
 @pytest.mark.parametrize("inputs, field, words", [
     ({"z_pct": 5}, "x_r", "give X/R together with %Z"),
     ({"x_r": 4}, "z_pct", "give %Z together with X/R"),
-    ({"z_pct": 0, "x_r": 4}, "z_pct", "greater than 0 %"),
+    ({"z_pct": 0, "x_r": 4}, "z_pct", "at least 0.1 %"),
     ({"z_pct": 35, "x_r": 4}, "z_pct", "at most 30 %"),
     ({"pf": 0}, "pf", "at least 0.05"),
     ({"pf": 1.1}, "pf", "at most 1"),

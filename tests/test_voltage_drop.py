@@ -368,7 +368,7 @@ def test_approximation_tolerance_threshold(factor, status):
     ("voltage-drop", {"size": "3.3 mm2"}, "size", "mm"),
     ("voltage-drop", {"pf": 0}, "pf", "greater than 0"),
     ("voltage-drop", {"pf": "1.1"}, "pf", "at most 1"),
-    ("voltage-drop", {"voltage": 0}, "voltage", "greater than 0 V"),
+    ("voltage-drop", {"voltage": 0}, "voltage", "at least 1 V"),
     ("voltage-drop", {"size": "2.5 mm2", "material": "al"}, "size", "not made in aluminium"),
     ("voltage-drop", {"current": ""}, "current", "give the load current"),
     ("voltage-drop", {"current": 16, "kva": 3}, "kva", "only one of"),

@@ -486,8 +486,8 @@ def run_inputs(with_size=True, with_length=True, with_sizes=False):
     items = [
         Input("system", "System", "choice", default="1ph", choices=SYSTEMS,
               help="Single-phase two-wire, 120/240 V three-wire, three-phase, or DC."),
-        Input("voltage", "Nominal voltage", "quantity", unit="V", default=120, minimum=0,
-              min_exclusive=True, maximum=35000, region_defaults={"iec": 230}, suggest="voltages",
+        Input("voltage", "Nominal voltage", "quantity", unit="V", default=120, minimum=1,
+              maximum=35000, region_defaults={"iec": 230}, suggest="voltages",
               help="Line-to-line for three-phase (480 V, 400 V); 240 V for 120/240 V three-wire."),
         Input("current", "Load current", "quantity", unit="A", default=16, optional=True,
               minimum=0, min_exclusive=True, maximum=20000,

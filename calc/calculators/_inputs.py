@@ -37,8 +37,7 @@ def frequency(**overrides):
 def source_power(**overrides):
     """`source_mva`: the supply's three-phase short-circuit power; blank = an infinite source."""
     return _input("source_mva", "Supply short-circuit power", "quantity", overrides, unit="MVA",
-                  group="source_level", optional=True, minimum=0, min_exclusive=True,
-                  maximum=1e5,
+                  group="source_level", optional=True, minimum=0.001, maximum=1e5,
                   help="At the transformer primary, from the utility; blank = infinite source "
                        "(the upper bound).")
 
@@ -46,8 +45,7 @@ def source_power(**overrides):
 def source_fault_current(**overrides):
     """`source_fault_a`: the supply's available three-phase fault current (instead of power)."""
     return _input("source_fault_a", "Or the supply's available fault current", "quantity",
-                  overrides, unit="kA", group="source_level", optional=True, minimum=0,
-                  min_exclusive=True,
+                  overrides, unit="kA", group="source_level", optional=True, minimum=0.001,
                   maximum=1000, help="Three-phase, at the transformer primary.")
 
 

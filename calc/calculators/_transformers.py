@@ -24,6 +24,9 @@ CONNECTION_LABELS = {
 CONNECTIONS = tuple((name, CONNECTION_LABELS[name]) for name in transformers.WINDING_CONNECTIONS)
 
 Z_PCT_MAX = 30  # the largest nameplate impedance the forms accept [%]
+# The smallest the forms accept [%]: no real transformer is below about 1 %, and a %Z that
+# rounds to nothing makes an infinite fault current.
+Z_PCT_MIN = 0.1
 
 # ---- the range of real transformers (the plausibility check) ------------------------------------
 # Nameplate %Z of real two-winding units: about 1.5-2 % for small dry-types to 15-20 % for large

@@ -183,7 +183,7 @@ def _checks(result, inputs, z, metric):
                      f"x_s = {z.x_s:.3g}; the IEC 60287-1-1 skin formula holds for x_s ≤ "
                      f"{SKIN_X_LIMIT}" + ("." if valid else "; beyond it use an exact (Bessel) "
                                           "solution or the maker's AC resistance."))
-    if z.x_table9 is not None:
+    if z.x_table9:  # None off the table; 0 at a frequency that rounds to DC
         effect = (conductors.effective_impedance(z.r_ac, z.x_geometry)
                   / conductors.effective_impedance(z.r_ac, z.x_table9) - 1)
         used = "Table 9's XL is used (method table)" if method == "table" else (

@@ -12,6 +12,7 @@ from calc import cautions, conductors, electrical, network, protection, transfor
 from calc.calculators import _inputs
 from calc.calculators._plausibility import outside, plausibility
 from calc.calculators._protection import require_table_conductor
+from calc.calculators._transformers import Z_PCT_MIN
 from calc.calculators._texts import SOURCE_IEC60909
 from calc.errors import InputError
 from calc.spec import Calculator, Input, Output, Result
@@ -335,13 +336,13 @@ CALCULATOR = Calculator(
             "transformer, the panel and the equipment, against the interrupting ratings there.",
     group="Protection",
     inputs=(
-        Input("xfmr_kva", "Transformer rating", "quantity", unit="kVA", default=750, minimum=0,
-              min_exclusive=True, maximum=100000, region_defaults={"iec": 630}),
+        Input("xfmr_kva", "Transformer rating", "quantity", unit="kVA", default=750, minimum=1,
+              maximum=100000, region_defaults={"iec": 630}),
         Input("secondary_v", "Secondary voltage", "quantity", unit="V", default=480, minimum=100,
               maximum=35000, region_defaults={"iec": 400}, suggest="voltages",
               help="Line-to-line."),
         Input("xfmr_z_pct", "Transformer impedance", "quantity", unit="%", default=5.75,
-              minimum=0, min_exclusive=True, maximum=30, region_defaults={"iec": 4.0},
+              minimum=Z_PCT_MIN, maximum=30, region_defaults={"iec": 4.0},
               help="Nameplate %Z."),
         Input("xfmr_x_r", "Transformer X/R", "quantity", unit="", default=6, minimum=0.1,
               maximum=100, region_defaults={"iec": 5}, help="From the test report; typically "
@@ -349,12 +350,12 @@ CALCULATOR = Calculator(
         Input("feeder_size", "Feeder size", "size", default="4/0",
               region_defaults={"iec": "95 mm²"}),
         Input("feeder_length", "Feeder length", "quantity", unit="m", default="120 ft",
-              minimum=0, min_exclusive=True, maximum=5000, region_defaults={"iec": "40 m"},
+              minimum=0.001, maximum=5000, region_defaults={"iec": "40 m"},
               help="One way, from the transformer to the panel."),
         Input("branch_size", "Branch size", "size", default="8 AWG",
               region_defaults={"iec": "10 mm²"}),
         Input("branch_length", "Branch length", "quantity", unit="m", default="50 ft",
-              minimum=0, min_exclusive=True, maximum=5000, region_defaults={"iec": "20 m"},
+              minimum=0.001, maximum=5000, region_defaults={"iec": "20 m"},
               help="One way, from the panel to the equipment."),
         _rating_input("main", "transformer secondary (main)"),
         _rating_input("panel", "panel"),

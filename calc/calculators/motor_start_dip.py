@@ -11,6 +11,7 @@ from calc import induction_motors as im
 from calc.calculators import _inputs, _motors
 from calc.calculators._plausibility import outside
 from calc.calculators.fault_current import LV_TRANSFORMER_VA, transformer_reasons
+from calc.calculators._transformers import Z_PCT_MIN
 from calc.errors import InputError, ParameterError, PathError, field_error
 from calc.spec import Calculator, Input, Output, Result
 from calc.units import format_quantity as fq
@@ -334,8 +335,8 @@ CALCULATOR = Calculator(
               help="Transformer secondary and motor rating, line-to-line."),
         Input("xfmr_kva", "Transformer rating", "quantity", unit="kVA", default=300, minimum=0,
               min_exclusive=True, maximum=100000, region_defaults={"iec": 630}),
-        Input("xfmr_z_pct", "Transformer impedance", "quantity", unit="%", default=5.75, minimum=0,
-              min_exclusive=True, maximum=30, region_defaults={"iec": 4.0}),
+        Input("xfmr_z_pct", "Transformer impedance", "quantity", unit="%", default=5.75,
+              minimum=Z_PCT_MIN, maximum=30, region_defaults={"iec": 4.0}),
         Input("feeder_size", "Shared feeder size", "size", default="4/0",
               region_defaults={"iec": "95 mm²"}),
         Input("feeder_length", "Shared feeder length", "quantity", unit="m", default="150 ft",

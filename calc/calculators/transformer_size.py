@@ -9,6 +9,7 @@ from calc.calculators._plausibility import plausibility
 from calc.calculators._transformers import (
     SOURCE_IDEAL,
     Z_PCT_MAX,
+    Z_PCT_MIN,
     connection_input,
     equipment_reasons,
     ideal_relations,
@@ -242,7 +243,7 @@ CALCULATOR = Calculator(
               optional=True, minimum=0.001, maximum=1_000_000, advanced=True,
               help="Code letter kVA/hp × hp (NEC Table 430.7(B)); blank: no motor check."),
         Input("z_pct", "Assumed impedance (for the motor dip)", "quantity", unit="%",
-              default=5.75, minimum=0, min_exclusive=True, maximum=Z_PCT_MAX, advanced=True,
+              default=5.75, minimum=Z_PCT_MIN, maximum=Z_PCT_MAX, advanced=True,
               region_defaults={"iec": 6}, help="Nameplate %Z if known."),
         Input("max_dip_pct", "Motor start dip limit", "quantity", unit="%",
               default=MOTOR_DIP_LIMIT_PCT,
