@@ -9,6 +9,7 @@ import math
 
 from calc import __version__, units
 from calc.calculators import CALCULATORS
+from calc.calculators._summary import summary_outputs
 from calc.errors import CalcError, InputError, InputErrors, UnitError, shorten
 from calc.spec import REGIONS
 
@@ -49,6 +50,7 @@ def describe(calculator_id):
         "outputs": [
             {"name": o.name, "label": o.label, "unit": o.unit} for o in calculator.outputs
         ],
+        "summary": list(summary_outputs(calculator)),
     }
 
 
@@ -64,6 +66,7 @@ def _describe_input(item):
     }
     if item.kind == "quantity":
         entry["units"] = units.units_for(units.dimension_of(item.unit))
+        entry["unit_hint"] = unit_hint(item)
         entry["min"] = item.minimum
         entry["max"] = item.maximum
         entry["min_exclusive"] = item.min_exclusive
@@ -221,7 +224,7 @@ def _allowed(item):
         return "enter yes or no"
     if item.kind == "text":
         return item.help or "enter a code"
-    unit_list = ", ".join(units.units_for(units.dimension_of(item.unit)))
+    unit_list = unit_hint(item)
     parts = []
     if item.minimum is not None:
         parts.append(("greater than " if item.min_exclusive else "at least ") + _limit(item, "minimum"))
@@ -234,13 +237,31 @@ def _allowed(item):
 def _limit(item, which):
     number = getattr(item, which)
     text = str(int(number)) if float(number).is_integer() else repr(float(number))
-    return f"{text} {item.unit}".strip()  # 1000000 kVA, never 1e+06 kVA
+    return f"{text} {units.unit_symbol(item.unit)}".strip()  # 1000000 kVA, never 1e+06 kVA
 
 
-def run(calculator_id, inputs, region=None):
+def is_ratio(item):
+    """A plain-number input that is a ratio (at most 1: pf, efficiency): "85 %" reads as 0.85."""
+    return units.dimension_of(item.unit) == "dimensionless" and item.maximum is not None \
+        and item.maximum <= 1
+
+
+def unit_hint(item):
+    """What a quantity input accepts, in words for its field and its messages: the units a
+    number may carry ("V, kV, mV"), or for a plain number that it takes none (a ratio: or %)."""
+    dimension = units.dimension_of(item.unit)
+    if dimension == "dimensionless":
+        return units.RATIO_HINT if is_ratio(item) else units.NUMBER_HINT
+    return ", ".join(units.units_for(dimension))
+
+
+def run(calculator_id, inputs, region=None, display=None):
     """Run a calculator on raw inputs and return the contract's result or error dict.
 
     Omitted inputs take the defaults of `region` ("na" or "iec"; None: North American).
+    `display` ("na" or "iec"; None: calc.units.DISPLAY_UNITS) is the unit system of the texts:
+    outputs' "display", method steps and messages; values stay SI. Lengths the caller gave with
+    a unit come back in that unit's system ("150 ft" in feet) when the given lengths agree.
 
     Never raises for bad input: errors come back as {"ok": false, "errors": [...]} with the
     field, the value received and what is allowed.
@@ -249,10 +270,15 @@ def run(calculator_id, inputs, region=None):
         calculator = get(calculator_id)
     except InputError as error:
         return _error_result(calculator_id, [error])
+    if display is not None and display not in units.DISPLAY_SYSTEMS:
+        return _error_result(calculator.id, [InputError(
+            None, display, f"display {shorten(display)!r} is not one of: "
+            + ", ".join(units.DISPLAY_SYSTEMS))])
     try:
         values = validate(calculator, inputs, region)
-        result = calculator.compute(values)
-        return _result_dict(calculator, result)
+        with units.display_units(display, _typed_length_system(calculator, inputs, values)):
+            result = calculator.compute(values)
+            return _result_dict(calculator, result)
     except InputErrors as errors:
         return _error_result(calculator.id, errors.errors)
     except InputError as error:
@@ -267,8 +293,17 @@ def run(calculator_id, inputs, region=None):
         return _error_result(calculator.id, [InputError(None, None, message)])
 
 
-def run_json(calculator_id, inputs_json):
-    """JSON text in, JSON text out: the worker's single entry point. User text is only data."""
+def _typed_length_system(calculator, inputs, values):
+    """"na" or "iec" when every length the caller gave (not a default) was in that system."""
+    systems = {units.length_system(values.typed_units[item.name]) for item in calculator.inputs
+               if item.name in inputs and item.name in values.typed_units
+               and units.dimension_of(item.unit) == "length"}
+    return systems.pop() if len(systems) == 1 else None
+
+
+def run_json(calculator_id, inputs_json, display=None):
+    """JSON text in, JSON text out: the worker's single entry point. User text is only data.
+    `display` is run's (the page's unit switch)."""
     try:
         inputs = json.loads(inputs_json)
     except (TypeError, ValueError) as error:
@@ -276,7 +311,7 @@ def run_json(calculator_id, inputs_json):
             calculator_id, [InputError(None, None, f"inputs are not valid JSON ({error})")]
         )
     else:
-        payload = run(calculator_id, inputs)
+        payload = run(calculator_id, inputs, display=display)
     return dumps(payload)
 
 

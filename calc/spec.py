@@ -83,6 +83,9 @@ class Calculator:
     inputs: tuple
     outputs: tuple
     compute: Callable
+    # The one to three output names that answer the page's question, shown first with the
+    # verdict (issue 12). Empty: calc.calculators._summary holds them for every calculator.
+    summary_outputs: tuple = ()
 
     def input(self, name):
         for item in self.inputs:

@@ -414,7 +414,7 @@ def test_running_already_above_the_class_limit_fails():
     ({"current": 0, "rated_current": ""}, "current", "must be more than 0 A"),
     ({"start_limit": 1}, "start_limit", "greater than 1"),
     ({"start_limit": 1.01}, "start_limit", "more than 20 steps"),
-    ({"armature_r": 0}, "armature_r", "at least 0.0001 ohm"),
+    ({"armature_r": 0}, "armature_r", "at least 0.0001 \u03a9"),
     ({"motor_type": "compound"}, "motor_type", "choose one of"),
     ({"speed_ref": 0}, "speed_ref", "at least 1"),
     ({"speed_ref": 5e-324}, "speed_ref", "at least 1"),  # once a ZeroDivisionError

@@ -17,10 +17,11 @@ CALCULATOR_DIR = CALC_DIR / "calculators"
 # The domain modules: physics and published tables only (STYLE.md).
 PHYSICS_MODULES = (
     "electrical", "conductors", "voltage_drop", "line_loss", "transformers", "induction_motors",
-    "dc_motors", "protection", "rlc", "power_factor", "network",
+    "dc_motors", "protection", "rlc", "power_factor", "network", "ampacity",
 )
 # Modules around the calculators, neither physics nor views.
-FRAMEWORK_MODULES = ("__init__", "__main__", "api", "spec", "units", "errors", "cautions", "jobs")
+FRAMEWORK_MODULES = ("__init__", "__main__", "api", "spec", "units", "errors", "cautions", "jobs",
+                     "batch")
 
 MAX_MODULE_LINES = 900  # a newcomer reads a module whole
 

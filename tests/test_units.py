@@ -40,6 +40,9 @@ PINT_SPELLING = {
     "Mvar": "MV*A", "MVAr": "MV*A", "MVAR": "MV*A",
     "Ohm": "ohm", "m2": "m**2", "mm2": "mm**2", "ohm/1000ft": "ohm/kft",
     "C": "degC", "%": "percent", "": "dimensionless",
+    # the marks a tradesperson writes for feet and inches (issue 12), and speed in r/min
+    "'": "ft", "\u2032": "ft", "\u2019": "ft", '"': "inch", "\u2033": "inch", "\u201d": "inch",
+    "''": "inch", "r/min": "rpm", "RPM": "rpm", "rev/min": "rpm", "r/s": "revolution/second",
 }
 
 # The coherent unit to_si returns, per dimension, in pint's spelling.
@@ -48,7 +51,7 @@ PINT_BASE = {
     "reactive_power": "V*A", "frequency": "Hz", "inductance": "H", "capacitance": "F",
     "resistance": "ohm", "time": "s", "length": "m", "area": "m**2",
     "impedance_per_length": "ohm/m", "percent": "percent", "dimensionless": "dimensionless",
-    "temperature": "degC",
+    "temperature": "degC", "angular_speed": "rad/s",
 }
 
 ALL_SYMBOLS = [
@@ -208,7 +211,8 @@ def test_format_quantity(value, unit, shown):
 def test_format_quantity_digits():
     # Computed: 208.2 A to 1, 2 and 5 significant figures; 1/3 V to 17.
     assert format_quantity(208.2, "A", 1) == "200 A"
-    assert format_quantity(1234.5, "m", 4) == "1234 m"  # half to even at the float 1234.5
+    # 1234.5 is halfway between two 4-figure numbers: one figure more, never a guess (issue 12)
+    assert format_quantity(1234.5, "m", 4) == "1234.5 m"
     assert format_quantity(208.2, "A", 2) == "210 A"
     assert format_quantity(208.2, "A", 5) == "208.20 A"
     assert format_quantity(1 / 3, "V", 17) == "333.33333333333331 mV"
@@ -376,9 +380,12 @@ def test_errors_are_value_errors():
 
 @pytest.mark.parametrize("dimension", units.DIMENSIONS)
 def test_help_and_display_units_are_accepted(dimension):
-    for symbol in units_for(dimension) + [s for s, _ in units.DISPLAY_UNITS[dimension]]:
-        assert dimension_of(symbol) == dimension or (symbol, dimension) == ("%", "dimensionless")
+    shown = [s for s, _ in units.DISPLAY_UNITS[dimension]]
+    shown += [s for system in units.DISPLAY_OVERRIDES.values() for s, _ in system.get(dimension, ())]
+    for symbol in units_for(dimension) + shown:
+        assert dimension_of(symbol) == dimension
     assert units_for("voltage") == ["V", "kV", "mV"]
+    assert units_for("dimensionless") == []  # a plain number advertises no "%" (issue 12)
 
 
 def test_standard_library_only():
@@ -419,3 +426,110 @@ def test_format_quantity_reads_back(symbol, value, digits):
     # Rounding to `digits` significant figures moves a value by at most half a unit in the last
     # place: relative 0.5 × 10^(1 − digits); 1e-12 more for the float conversions.
     assert to_si(shown, symbol) == pytest.approx(value, rel=0.5 * 10 ** (1 - digits) + 1e-12)
+
+
+# --- issue 12: what a technician types, and values shown the way the user works --------------
+
+@pytest.mark.parametrize("text, unit, expected", [
+    ("100'", "m", 30.48), ("100 '", "m", 30.48), ("100\u2032", "m", 30.48),
+    ("100\u2019", "m", 30.48),  # a phone keyboard's curly apostrophe
+    ('6"', "m", 0.1524), ("6\u2033", "m", 0.1524), ("6''", "m", 0.1524), ("6\u201d", "m", 0.1524),
+    ("1750 rpm", "r/min", 1750 * math.pi / 30), ("1750 r/min", "rad/s", 1750 * math.pi / 30),
+    ("1750", "r/min", 1750 * math.pi / 30),
+])
+def test_trade_marks_and_speeds_read(text, unit, expected):
+    # Exact by definition: 1 ft = 0.3048 m, 1 in = 0.0254 m; 1 r/min = 2π/60 rad/s.
+    assert to_si(text, unit) == pytest.approx(expected, rel=1e-15)
+
+
+def test_speed_in_a_plain_number_field_names_the_dimension():
+    with pytest.raises(UnitError, match="rotational speed, not a plain number"):
+        to_si("1750 rpm", "")
+
+
+@pytest.mark.parametrize("value, unit, shown", [
+    (112500, "VA", "112.5 kVA"),  # a standard rating (IEEE C57.12.00 series) keeps its half
+    (37500, "VA", "37.5 kVA"),
+    (208.2, "A", "208 A"),  # not halfway: three figures as always
+    (999.5, "V", "999.5 V"),  # halfway decides before the prefix: not "1.00 kV"
+    (0.0125, "V", "12.5 mV"),
+])
+def test_halfway_values_keep_their_figure(value, unit, shown):
+    assert format_quantity(value, unit) == shown
+
+
+@pytest.mark.parametrize("value, unit, system, lengths, shown", [
+    # 1 ft = 0.3048 m exactly; 150 ft = 45.72 m, 4 in = 0.1016 m
+    (45.72, "m", "na", None, "150 ft"),
+    (0.1016, "m", "na", None, "4.00 in"),
+    (45.72, "m", "iec", None, "45.7 m"),
+    (45.72, "m", "iec", "na", "150 ft"),  # typed in feet, shown in feet on an IEC display
+    (45.72, "m", "na", "iec", "45.7 m"),  # typed in metres: metres
+    # NEC Ch. 9 Table 8: 12 AWG Cu 1.98 ohm/kft = 6.50 ohm/km (6.496 computed)
+    (6.496e-3, "ohm/m", "na", None, "1.98 \u03a9/kft"),
+    (6.496e-3, "ohm/m", "iec", None, "6.50 \u03a9/km"),
+    # NEC Ch. 9 Table 8: 12 AWG is 6530 cmil = 6.53 kcmil, 3.31 mm²
+    (6530 * CIRCULAR_MIL_M2, "m2", "na", None, "6.53 kcmil"),
+    (6530 * CIRCULAR_MIL_M2, "m2", "iec", None, "3.31 mm\u00b2"),
+    (75.0, "degC", "na", None, "75.0 \u00b0C"),  # conductor ratings stay in °C (NEC 310.16)
+    (183.26, "rad/s", None, None, "1750 r/min"),  # 1750 × 2π/60 = 183.26 rad/s
+])
+def test_display_systems(value, unit, system, lengths, shown):
+    with units.display_units(system, lengths):
+        assert format_quantity(value, unit) == shown
+
+
+def test_display_units_is_undone_on_exit_even_after_an_error():
+    with pytest.raises(RuntimeError):
+        with units.display_units("na"):
+            assert format_quantity(30.48, "m") == "100 ft"
+            raise RuntimeError("a calculation failed")
+    assert format_quantity(30.48, "m") == "30.5 m"
+    with pytest.raises(UnitError, match="display system 'imperial' is not one of: na, iec"):
+        with units.display_units("imperial"):
+            pass
+
+
+def test_length_system_of_typed_units():
+    assert [units.length_system(s) for s in ("ft", "in", "'", '"', "m", "mm", "km", "V", "")] == \
+        ["na", "na", "na", "na", "iec", "iec", "iec", None, None]
+
+
+def test_unit_symbols_read_as_people_write_them():
+    assert [units.unit_symbol(s) for s in ("ohm", "degC", "uF", "ohm/km", "m2", "V")] == \
+        ["\u03a9", "\u00b0C", "\u00b5F", "\u03a9/km", "m\u00b2", "V"]
+
+
+@pytest.mark.parametrize("amount, shown", [
+    (2088, "2088.00"), (392, "392.00"), (1196.404, "1196.40"), (0.005, "0.01"),
+    (12345.6, "12\u202f345.60"), (-2088.5, "-2088.50"), (1234567.891, "1\u202f234\u202f567.89"),
+])
+def test_one_money_format(amount, shown):
+    from calc.calculators.line_loss import format_money
+
+    assert format_money(amount) == shown
+
+
+@pytest.mark.parametrize("value, shown", [
+    (complex(2, 1.421e-14), "2.00 + j0 \u03a9"),  # float noise of X_L − X_C at resonance
+    (complex(3100, -1200), "3.10 \u2212 j1.20 k\u03a9"),
+    (complex(-0.5, 0.25), "-0.500 + j0.250 \u03a9"),
+    (0j, "0 + j0 \u03a9"),
+])
+def test_format_complex(value, shown):
+    assert units.format_complex(value, "ohm") == shown
+
+
+@pytest.mark.parametrize("call, message", [
+    (lambda: units.format_complex(complex(float("inf"), 0), "ohm"), "not a finite number"),
+    (lambda: units.format_complex("2+3j", "ohm"), "a phasor is a complex number"),
+])
+def test_formatting_errors(call, message):
+    with pytest.raises(UnitError, match=message):
+        call()
+
+
+def test_money_is_never_shown_non_finite():
+    from calc.calculators.line_loss import format_money
+    with pytest.raises(ValueError, match="not a finite number"):
+        format_money(float("nan"))

@@ -7,8 +7,10 @@ test.
 """
 
 from calc.calculators import (
+    ampacity,
     back_emf,
     buck_boost,
+    circuit_check,
     conductor,
     fault_current,
     gfci_check,
@@ -34,10 +36,12 @@ from calc.calculators import (
 CALCULATORS = tuple(module.CALCULATOR for module in (
     # Conductors and voltage drop
     conductor,
+    ampacity,
     voltage_drop,
     wire_size,
     max_length,
     line_loss,
+    circuit_check,
     # Transformers
     transformer_currents,
     transformer_size,

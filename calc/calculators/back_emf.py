@@ -80,6 +80,11 @@ def _rpm(speed):
     return f"{_figure(speed / dc.RAD_S_PER_RPM)} r/min"
 
 
+def _ref_rpm(inputs):
+    """The known speed in r/min (inputs hold rad/s)."""
+    return round(inputs["speed_ref"] / dc.RAD_S_PER_RPM, 9)
+
+
 def _overspeed_pct():
     return f"{100 * (dc.OVERSPEED_LIMIT - 1):g} %"
 
@@ -135,7 +140,7 @@ def _dc_setup(inputs):
                              f"{fq(amps * r_a, 'V')} uses the whole {fq(voltage, 'V')}: the "
                              "motor would be at standstill (it draws "
                              f"{fq(voltage / r_a, 'A')} there); enter a running current")
-    speed_ref = inputs["speed_ref"] * dc.RAD_S_PER_RPM
+    speed_ref = inputs["speed_ref"]  # rad/s: the form reads r/min
     emf_ref = dc.back_emf(voltage, r_a, ref_a)
     constant = dc.motor_constant(kind, emf_ref, speed_ref, ref_a)
     return field_a, armature_a, rated_a, ref_a, speed_ref, emf_ref, constant
@@ -184,7 +189,7 @@ def _back_emf_view(inputs):
                  " (constant flux)"),
                 "N = N_ref × (E_b / E_ref) / (Φ / Φ_ref)",
                 f"E_ref = {v} − {fq(ref_a, 'A')} × {ra} = {fq(emf_ref, 'V')}; N = "
-                f"{inputs['speed_ref']:g} × {emf / emf_ref:.4g}" +
+                f"{_ref_rpm(inputs):g} × {emf / emf_ref:.4g}" +
                 (f" / {flux:.4g}" if series else "") + f" = {_rpm(speed)}")
     torque = model.torque(armature_a)
     result.output("torque", torque, f"{torque:.4g} N·m")
@@ -196,7 +201,7 @@ def _back_emf_view(inputs):
         no_load = voltage / k
         result.output("no_load_speed", no_load, _rpm(no_load))
         result.step("No-load speed (I_a → 0, E_b → V)", "N_0 = N_ref × V / E_ref",
-                    f"= {inputs['speed_ref']:g} × {voltage / emf_ref:.4g} = {_rpm(no_load)}")
+                    f"= {_ref_rpm(inputs):g} × {voltage / emf_ref:.4g} = {_rpm(no_load)}")
     else:
         ratio = armature_a / ref_a
         low, high = dc.SERIES_FLUX_RANGE
@@ -209,17 +214,17 @@ def _back_emf_view(inputs):
     if speed > dc.OVERSPEED_LIMIT * speed_ref:
         result.check("overspeed", "warn",
                      f"{_rpm(speed)} is more than {_overspeed_pct()} above the known speed "
-                     f"({inputs['speed_ref']:g} r/min); DC motors are built for about "
+                     f"({_ref_rpm(inputs):g} r/min); DC motors are built for about "
                      f"{_overspeed_pct()} overspeed (NEMA MG 1, from memory)" +
                      (": a series motor races when its load is light." if series else "."))
 
     at_speed = inputs["speed_at"]
     if at_speed is not None:
-        omega = at_speed * dc.RAD_S_PER_RPM
+        omega = at_speed
         current_at = model.quasi_current(r_a, omega)
         result.output("current_at_speed_a", current_at)
         formula = "I_a = V / (R_a + k_s ω)" if series else "I_a = (V − k ω) / R_a"
-        result.step(f"Armature current at {at_speed:g} r/min (steady, inductance aside)", formula,
+        result.step(f"Armature current at {_rpm(at_speed)} (steady, inductance aside)", formula,
                     f"k{'_s' if series else ''} = {k:.4g}; I_a = {fq(current_at, 'A')}")
         if current_at < 0.0:
             result.check("regenerating", "warn",
@@ -261,8 +266,8 @@ def _plausibility(inputs, result, rated_a):
     """The motor's speed, voltage and size and the run-up against those of real DC motors."""
     reasons = []
     low, high = SPEED_RANGE_RPM
-    if outside(inputs["speed_ref"], low, high):
-        reasons.append(f"a known speed of {inputs['speed_ref']:g} r/min is outside the {low:g}–"
+    if outside(_ref_rpm(inputs), low, high):
+        reasons.append(f"a known speed of {_ref_rpm(inputs):g} r/min is outside the {low:g}–"
                        f"{high:g} r/min of real DC motors (common practice): with it the torque "
                        "is "
                        f"{result.outputs['torque'][0]:.4g} N·m for "
@@ -521,7 +526,7 @@ CALCULATOR = Calculator(
                    "field."),
         Input("current", "Motor current now", "quantity", unit="A", default=16, minimum=0,
               maximum=100000, help="Line current at the operating point (clamp reading)."),
-        Input("speed_ref", "Known speed (r/min)", "quantity", unit="", default=1750, minimum=1,
+        Input("speed_ref", "Known speed", "quantity", unit="r/min", default=1750, minimum=1,
               maximum=100000,
               help="Nameplate speed at rated current, or another speed you know the current "
                    "for."),
@@ -535,7 +540,7 @@ CALCULATOR = Calculator(
         Input("current_ref", "Current at the known speed", "quantity", unit="A", optional=True,
               minimum=0, maximum=100000, advanced=True,
               help="Blank = rated current. For a no-load speed enter the no-load current."),
-        Input("speed_at", "Speed for the current-at-speed (r/min)", "quantity", unit="",
+        Input("speed_at", "Speed for the current-at-speed", "quantity", unit="r/min",
               optional=True, minimum=0, maximum=100000, advanced=True),
         Input("field_r", "Shunt field circuit resistance", "quantity", unit="ohm",
               optional=True, minimum=0.01, maximum=1e6, advanced=True,

@@ -8,7 +8,7 @@ line-to-neutral currents and the X/R of their test circuit.
 
 import math
 
-from calc import cautions, conductors, electrical, network, protection, transformers
+from calc import cautions, conductors, electrical, network, protection, transformers, units
 from calc.calculators import _inputs
 from calc.calculators._plausibility import outside, plausibility
 from calc.calculators._protection import require_table_conductor
@@ -145,7 +145,7 @@ def _impedance_steps(result, inputs, path, c, iec):
         result.step(f"The {run}: {cable.size.label} {conductors.MATERIAL_NAMES[cable.material]} × "
                     f"{fq(cable.length, 'm')}{sets}, at {protection.MAX_FAULT_CONDUCTOR_C:g} °C",
                     "Z = (R_ac + jX) × L / sets (per phase)",
-                    f"= {fq(phase.real, 'ohm')} + j{fq(phase.imag, 'ohm')}")
+                    f"= {units.format_complex(phase, 'ohm')}")
 
 
 def _fault_steps(result, faults, volts, c, iec):

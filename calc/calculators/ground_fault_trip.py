@@ -8,7 +8,7 @@ impedance low enough that the instantaneous trip operates, with the EGC no small
 of Table 41.1. Both give the longest run that still clears.
 """
 
-from calc import cautions, conductors, electrical, protection, transformers
+from calc import cautions, conductors, electrical, protection, transformers, units
 from calc.calculators import _inputs
 from calc.calculators._plausibility import outside, plausibility
 from calc.calculators._protection import require_table_conductor
@@ -288,7 +288,7 @@ def _view(inputs):
     result.step(f"Loop through the line conductor ({size.label}) and the protective conductor "
                 f"({cpc.label}), {name} at {temperature:g} °C, resistance and reactance",
                 "z = (R1 + R2) + j(X1 + X2) per metre",
-                f"= {fq(z_m.real, 'ohm/m')} + j{fq(z_m.imag, 'ohm/m')}, |z| = {per_m}")
+                f"= {units.format_complex(z_m, 'ohm/m')}, |z| = {per_m}")
     result.step("Resistance of the run", "R1 + R2 = |z| × L",
                 f"= {per_m} × {fq(length, 'm')} = {fq(r1_r2, 'ohm')}")
     result.step("Fault loop impedance (Ze added arithmetically: its angle is not known)",

@@ -5,6 +5,7 @@ step-up / step-down transformer pair), the energy and money lost in a year at th
 and tariff, and the simple payback of a larger conductor at the first voltage.
 """
 
+import math
 from typing import NamedTuple
 
 from calc import cautions, line_loss, units, voltage_drop
@@ -197,9 +198,45 @@ def _energy_text(joules):
     return f"{fq(kwh, '')} kWh"
 
 
-def _money(amount):
-    """A sum in currency units: whole units from 1000 up, else two decimals."""
-    return f"{amount:.0f}" if abs(amount) >= 1000 else f"{amount:.2f}"
+def format_money(amount: float) -> str:
+    """Show an amount of money to the cent, in the one format every calculator uses.
+
+    Parameters
+    ----------
+    amount : float
+        In currency units (the user's own: the tariff sets them).
+
+    Returns
+    -------
+    str
+        Two decimals; from 10 000 up the whole part in groups of three separated by a narrow
+        no-break space (U+202F), as the SI Brochure (9th ed., 5.4.4) groups digits; a
+        four-digit whole part is not split. "392.00", "2088.00", "12 345.60".
+
+    Raises
+    ------
+    ValueError
+        For a non-finite amount (a computed cost never is one).
+
+    Examples
+    --------
+    >>> format_money(392), format_money(2088.4), format_money(-1196.404)
+    ('392.00', '2088.40', '-1196.40')
+    >>> format_money(12345.6) == "12\u202f345.60"
+    True
+    """
+    value = float(amount)
+    if not math.isfinite(value):
+        raise ValueError(f"received {amount!r}, which is not a finite number")
+    whole, _, cents = f"{abs(value):.2f}".partition(".")
+    if len(whole) > 4:
+        groups = []
+        while whole:
+            groups.insert(0, whole[-3:])
+            whole = whole[:-3]
+        whole = "\u202f".join(groups)
+    sign = "-" if value < 0 and (whole, cents) != ("0", "00") else ""
+    return f"{sign}{whole}.{cents}"
 
 
 def _years(seconds):
@@ -242,11 +279,11 @@ def _view(inputs):
             result.output(name, option.loss_cp)
     result.output("annual_loss_j", first.energy, _energy_text(first.energy))
     result.output("alt_annual_loss_j", alt.energy, _energy_text(alt.energy))
-    result.output("annual_cost", first.cost, _money(first.cost))
-    result.output("alt_annual_cost", alt.cost, _money(alt.cost))
-    result.output("annual_saving", saving, _money(saving))
+    result.output("annual_cost", first.cost, format_money(first.cost))
+    result.output("alt_annual_cost", alt.cost, format_money(alt.cost))
+    result.output("annual_saving", saving, format_money(saving))
     result.output("upsized_loss_w", upsized.run.loss_w)
-    result.output("upsized_annual_saving", upsized_saving, _money(upsized_saving))
+    result.output("upsized_annual_saving", upsized_saving, format_money(upsized_saving))
     if payback is not None:
         result.output("payback", payback, _years(payback))
 
@@ -316,23 +353,23 @@ def _steps(result, inputs, reading, z, first, alt, upsized, extra_cost, payback)
                         f"{_energy_text(option.energy)}")
     result.step("Cost of the losses (flat tariff, currency units per kWh)",
                 "C = E [kWh] × tariff",
-                f"= {_energy_text(first.energy)} × {r.tariff:g} = {_money(first.cost)}; "
-                f"{_energy_text(alt.energy)} × {r.tariff:g} = {_money(alt.cost)} (currency "
+                f"= {_energy_text(first.energy)} × {r.tariff:g} = {format_money(first.cost)}; "
+                f"{_energy_text(alt.energy)} × {r.tariff:g} = {format_money(alt.cost)} (currency "
                 "units a year)")
     result.step(f"Saving a year at {fq(alt.voltage, 'V')}", "ΔC = C − C_alt",
-                f"= {_money(first.cost)} − {_money(alt.cost)} = {_money(first.cost - alt.cost)} "
+                f"= {format_money(first.cost)} − {format_money(alt.cost)} = {format_money(first.cost - alt.cost)} "
                 "currency units")
     upsized_saving = first.cost - upsized.cost
     result.step(f"The larger conductor at {fq(first.voltage, 'V')}: {upsized.size.label}",
                 f"P_loss = {n} I² R_larger",
                 f"= {n} × ({fq(upsized.current, 'A')})² × {upsized.run.resistance:.4g} Ω = "
                 f"{fq(upsized.run.loss_w, 'W')}; {_energy_text(upsized.energy)} a year, saving "
-                f"{_money(upsized_saving)} currency units a year")
+                f"{format_money(upsized_saving)} currency units a year")
     if extra_cost is not None:
         shown = (_years(payback) if payback is not None else "never (no saving)"
                  if upsized_saving <= 0 else f"more than {MAX_PAYBACK_YEARS:g} years")
         result.step("Simple payback of the larger conductor", "t = extra cost / annual saving",
-                    f"= {_money(extra_cost)} / {_money(upsized_saving)} a year = {shown}")
+                    f"= {format_money(extra_cost)} / {format_money(upsized_saving)} a year = {shown}")
 
 
 def _checks(result, inputs, first, alt, upsized_saving, extra_cost, payback):
@@ -341,12 +378,12 @@ def _checks(result, inputs, first, alt, upsized_saving, extra_cost, payback):
         drop_limit_check(result, name, option.run.drop_pct, limit,
                          f"At {fq(option.voltage, 'V')} the drop")
     saving = first.cost - alt.cost
-    better = (f"{fq(alt.voltage, 'V')} saves {_money(saving)} currency units a year over "
+    better = (f"{fq(alt.voltage, 'V')} saves {format_money(saving)} currency units a year over "
               f"{fq(first.voltage, 'V')}")
     if saving <= 0:
         cause = (" the transformers' losses outweigh the conductor saving" if alt.transformers
                  else " its conductor loss is no lower")
-        more = f" ({_money(abs(saving))} currency units a year more)" if saving < 0 else ""
+        more = f" ({format_money(abs(saving))} currency units a year more)" if saving < 0 else ""
         better = (f"{fq(alt.voltage, 'V')} saves nothing over {fq(first.voltage, 'V')}{more}:"
                   f"{cause}")
     result.check("alt_voltage_saving", "pass" if saving > 0 else "warn", better + ".")

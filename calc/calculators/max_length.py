@@ -5,7 +5,6 @@ limit, found by bisection; the voltage-drop run, not the protective loop's longe
 ground-fault-trip's).
 """
 
-from calc import units
 from calc.calculators._conductors import (
     conductor_impedance,
     describe_run,
@@ -33,15 +32,14 @@ def _view(inputs):
     except VoltageCollapse as error:
         raise InputError("current", r.current, str(error)) from None
     _, run = solve(inputs, size, length)
-    shown = f"{fq(length, 'm')} ({units.from_si(length, 'ft'):.3g} ft)"
     result = Result()
-    result.output("length", length, shown)
+    result.output("length", length)  # in the page's display system (ft or m)
     result.output("drop_pct", run.drop_pct)
     result.output("current", run.current)
     if run.leg_drop_pct is not None:
         result.output("drop_leg_pct", run.leg_drop_pct)
     result.step("Longest run: the length at which the exact drop equals the limit (bisection)",
-                f"drop(L) = {limit:g} %", f"L = {shown}")
+                f"drop(L) = {limit:g} %", f"L = {fq(length, 'm')}")
     describe_run(result, inputs, size, length, z, run)
     result.cautions.insert(0, CAUTION_DROP_ONLY)
     result.series = drop_series(inputs, size, length, limit)

@@ -6,7 +6,7 @@ frequencies, |Z| and I at any frequency, and the L or C that tunes to a target f
 import cmath
 import math
 
-from calc import cautions, rlc
+from calc import cautions, rlc, units
 from calc.calculators._circuits import CHART_POINTS, part_reasons, q_reason
 from calc.calculators._plausibility import plausibility
 from calc.spec import Calculator, Input, Output, Result
@@ -130,7 +130,7 @@ def _view(inputs):
     result.step("Damping ratio", "ζ = 1 / (2Q)", f"= {1.0 / (2.0 * q):.4g}")
     formula = "Z = R + j(ωL − 1/ωC)" if series else "Z = 1 / (1/R + 1/(jωL) + jωC)"
     result.step(f"Impedance at {fq(frequency, 'Hz')}", formula,
-                f"= {z.real:.4g} {'+' if z.imag >= 0 else '−'} j{abs(z.imag):.4g} Ω = "
+                f"= {units.format_complex(z, 'ohm', 4)} = "
                 f"{fq(abs(z), 'ohm')} at {phase:.1f}°")
     result.step(f"Current from {fq(v, 'V')} at that frequency", "I = V / |Z|",
                 f"= {fq(v, 'V')} / {fq(abs(z), 'ohm')} = {fq(current, 'A')}")
