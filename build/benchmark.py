@@ -17,7 +17,12 @@ site's CSP (build/serve.py), drives headless Debian Chromium on calculators/tran
   recompute  engine ready, --changes kva values filled in, each timed from the input event to
              data-state="done" with a new output; includes the page's debounce (DEBOUNCE_MS in
              fluxbook.js), also shown subtracted. p95 is nearest-rank.
-  bytes      every URL in sw.js's precache manifest: own files, Pyodide's folder, theme assets.
+  engine     per calculator (issue 12): engine.run(id, defaults, "na") from the page, --engine-runs
+             times after one untimed run: the worker's round trip (JSON both ways, Python's
+             validate, compute, format), no debounce. Target: p95 <= 16 ms for every calculator.
+  bytes      every URL in sw.js's precache manifest: own files, Pyodide's folder, theme assets;
+             own also gzip-compressed (level 9, as a host that compresses sends them).
+             Target (issue 12): own <= 1 MB.
 Reading it: ms on the page's performance.now() clock (0 = navigation start), marked by a
 MutationObserver from add_init_script (injected over the DevTools protocol: the CSP allows it).
 "wall" is Python's clock around goto/reload + wait, the fallback if in-page marks are missing
@@ -29,6 +34,7 @@ runs are interleaved. The load average is printed: compare runs on the same idle
 
 import argparse
 import contextlib
+import gzip
 import math
 import os
 import re
@@ -53,6 +59,8 @@ DONE = '[data-calculator][data-state="done"]'
 TIMEOUT_MS = 120000
 BENCH = "__bench__"
 SNAPSHOT_TARGET = 0.25  # warm snapshot start / bare loadPyodide(), at most
+ENGINE_P95_TARGET_MS = 16  # per recompute, every calculator (issue 12)
+OWN_BYTES_TARGET = 1_000_000  # our own shipped bytes (issue 12)
 SNAPSHOT_CACHE = "fluxbook-engine-snapshot"
 # The page's own engine (same module URL, same instance): its state, e.g. the snapshot's news.
 ENGINE_STATE_JS = """async () => {
@@ -220,9 +228,11 @@ def recompute(browser, base, changes):
 
 
 def precache_bytes(site, pyodide):
-    """Sizes of the URLs in sw.js's precache manifest: (count, {group: bytes})."""
+    """Sizes of the URLs in sw.js's precache manifest: (count, {group: bytes}); "own_gzip" is
+    the own files gzip-compressed (level 9), "largest" the five largest own files."""
     urls = re.findall(r'\burl:"([^"]+)"', (site / "sw.js").read_text(encoding="utf-8"))
-    groups = dict.fromkeys(("own", "vendored", "pyodide", "theme"), 0)
+    groups = dict.fromkeys(("own", "own_gzip", "vendored", "pyodide", "theme"), 0)
+    own = []
     for url in urls:
         size = (site / url).stat().st_size
         if url.startswith(pyodide + "/"):
@@ -231,8 +241,40 @@ def precache_bytes(site, pyodide):
             groups["theme"] += size
         else:
             groups["own"] += size
+            groups["own_gzip"] += len(gzip.compress((site / url).read_bytes(), 9, mtime=0))
             groups["vendored"] += size if url.startswith("assets/vendor/") else 0
+            own.append((size, url))
+    groups["largest"] = sorted(own, reverse=True)[:5]
     return len(urls), groups
+
+
+ENGINE_TIMES_JS = ENGINE_STATE_JS.replace("return engine().state;", """const running = engine();
+  await running.ready;
+  const [ids, runs] = args;
+  const times = {};
+  for (const id of ids) {
+    const first = await running.run(id, {}, "na");  // untimed: the first run imports lazily
+    if (!first.ok) return {error: id + ": " + JSON.stringify(first.errors)};
+    times[id] = [];
+    for (let i = 0; i < runs; i++) {
+      const t0 = performance.now();
+      await running.run(id, {}, "na");
+      times[id].push(performance.now() - t0);
+    }
+  }
+  return times;""").replace("async () =>", "async (args) =>")
+
+
+def engine_times(browser, base, runs):
+    """{calculator id: [ms per run]}: the engine's round trip per recompute, every calculator."""
+    from calc import api  # the registry: the same ids the worker allows
+    with fresh_page(browser) as (_, page):
+        page.goto(base + PAGE)
+        page.wait_for_selector(DONE)
+        times = page.evaluate(ENGINE_TIMES_JS, [list(api.REGISTRY), runs])
+    if "error" in times:
+        sys.exit(f"a calculator's defaults did not compute: {times['error']}")
+    return times
 
 
 def p95(values):
@@ -251,6 +293,8 @@ def main(argv=None):
     parser.add_argument("--site", help="a built site (default: build one into a temp folder)")
     parser.add_argument("--runs", type=int, default=3, help="bare/cold/warm repetitions (3)")
     parser.add_argument("--changes", type=int, default=30, help="input changes to time (30)")
+    parser.add_argument("--engine-runs", type=int, default=20,
+                        help="timed runs per calculator for the engine figures (20)")
     args = parser.parse_args(argv)
     if args.site and not (Path(args.site) / "sw.js").exists():
         parser.error(f"{args.site} is not a built site (no sw.js)")
@@ -282,6 +326,7 @@ def main(argv=None):
             saved.append(news)
         with serving(site) as (base, _):
             latencies = recompute(browser, base, args.changes)
+            engine = engine_times(browser, base, args.engine_runs)
         version = browser.version
 
     load = ", ".join(f"{v:.1f}" for v in os.getloadavg())
@@ -321,15 +366,31 @@ def main(argv=None):
           f"  {'of which debounce (DEBOUNCE_MS)':<33}       {debounce:6d} ms\n"
           f"  {'minus the debounce':<33}median {med - debounce:6.0f} ms"
           f"   p95 {top - debounce:4.0f} ms")
+    print(f"\nEngine time per recompute, every calculator ({args.engine_runs} runs each, defaults, "
+          f"\"na\" display; worker round trip, page clock), slowest first")
+    slowest = sorted(engine.items(), key=lambda item: -p95(item[1]))
+    for calculator_id, times in slowest:
+        flag = "" if p95(times) <= ENGINE_P95_TARGET_MS else "   OVER"
+        print(f"  {calculator_id:<33}median {statistics.median(times):6.1f} ms   "
+              f"p95 {p95(times):6.1f} ms   max {max(times):6.1f} ms{flag}")
+    over = [c for c, t in engine.items() if p95(t) > ENGINE_P95_TARGET_MS]
+    print(f"  target p95 <= {ENGINE_P95_TARGET_MS} ms on every calculator: "
+          + ("met" if not over else f"NOT MET ({len(over)}: {', '.join(over)})"))
     print(f"\nPrecached bytes ({count} URLs in sw.js's manifest; sent uncompressed by serve.py)")
     for label, size in (
         ("total", total),
         ("own (pages, our JS/CSS, calc.zip, icons, search index, libs)", groups["own"]),
         ("  of which vendored libraries (uPlot, workbox-window)", groups["vendored"]),
+        ("  own, gzip-compressed (as a compressing host sends them)", groups["own_gzip"]),
         (f"Pyodide ({pyodide}/)", groups["pyodide"]),
         ("theme (mkdocs-material: assets/javascripts, assets/stylesheets)", groups["theme"]),
     ):
         print(f"  {label:<66}{size / 1e6:6.2f} MB {size:>12,} B")
+    print("  largest own files: " + ", ".join(f"{url} {size / 1e3:.0f} kB"
+                                             for size, url in groups["largest"]))
+    for label, size in (("as stored", groups["own"]), ("gzip-compressed", groups["own_gzip"])):
+        verdict = "met" if size <= OWN_BYTES_TARGET else "NOT MET"
+        print(f"  target own <= {OWN_BYTES_TARGET / 1e6:.0f} MB, {label}: {size / 1e6:.2f} MB, {verdict}")
 
 if __name__ == "__main__":
     main()

@@ -4,9 +4,17 @@ The page is readable and the form usable before any Python runs in the browser. 
 reaches the HTML goes through `html.escape`.
 """
 
+import json
+import re
 from html import escape
 
 from calc import api, units
+from calc.calculators._summary import summary_outputs
+
+# Lengths on the page: a bare number in a length field is read in the display system's unit
+# (forms.js appends it), so the label always tells the truth. The page's switch changes both.
+LENGTH_UNITS = {"na": "ft", "iec": "m"}
+UNIT_SWITCH = (("na", "ft · kcmil"), ("iec", "m · mm²"))
 
 
 def _attr(value):
@@ -14,14 +22,21 @@ def _attr(value):
 
 
 def _default_text(item, value):
-    """The text a field starts with: a number in the declared unit is shown without the unit."""
+    """The text a field starts with: a number in the declared unit is shown without the unit,
+    except a length, which always carries its unit (a bare length follows the page's system)."""
     if value is None:
         return ""
     if isinstance(value, bool):
         return "yes" if value else "no"
     if isinstance(value, (int, float)):
+        if _is_length(item):
+            return f"{value:g} {item.unit}"
         return f"{value:g}"
     return str(value)
+
+
+def _is_length(item):
+    return item.kind == "quantity" and units.dimension_of(item.unit) == "length"
 
 
 def _field_ids(prefix, name):
@@ -29,14 +44,21 @@ def _field_ids(prefix, name):
 
 
 def _quantity_control(item, field_id, described, value, datalist_id):
-    unit_hint = ", ".join(units.units_for(units.dimension_of(item.unit)))
+    hint = api.unit_hint(item)
+    title = hint[0].upper() + hint[1:] if units.dimension_of(item.unit) == "dimensionless" \
+        else "Units: " + hint
     listed = f' list="{_attr(datalist_id)}"' if item.suggest == "voltages" and datalist_id else ""
     placeholder = "blank = not given" if item.optional else ""
+    length = ' data-dimension="length"' if _is_length(item) else ""
+    # Letters where a unit is typed: "150 ft", "10 hp", "13.8 kV" (a decimal keypad has none);
+    # plain numbers and percentages keep the number pad.
+    mode = "decimal" if units.dimension_of(item.unit) in ("dimensionless", "percent") else "text"
     return (
-        f'<input id="{field_id}" name="{_attr(item.name)}" type="text" inputmode="decimal" '
+        f'<input id="{field_id}" name="{_attr(item.name)}" type="text" inputmode="{mode}" '
         f'enterkeyhint="done" autocomplete="off" autocapitalize="off" spellcheck="false" '
-        f'value="{_attr(value)}" data-unit="{_attr(item.unit)}" aria-describedby="{described}"'
-        f'{listed} placeholder="{_attr(placeholder)}" title="{_attr("Units: " + unit_hint)}">'
+        f'value="{_attr(value)}" data-default="{_attr(value)}" data-unit="{_attr(item.unit)}"'
+        f'{length} aria-describedby="{described}"'
+        f'{listed} placeholder="{_attr(placeholder)}" title="{_attr(title)}">'
     )
 
 
@@ -52,7 +74,8 @@ def _text_control(item, field_id, described, value):
     return (
         f'<input id="{field_id}" name="{_attr(item.name)}" type="text" autocomplete="off" '
         f'autocapitalize="characters" spellcheck="false" enterkeyhint="done" '
-        f'value="{_attr(value)}" aria-describedby="{described}"{listed}>{tail}'
+        f'value="{_attr(value)}" data-default="{_attr(value)}" aria-describedby="{described}"'
+        f'{listed}>{tail}'
     )
 
 
@@ -69,27 +92,43 @@ def _select_control(item, field_id, described, value):
         body = _options(item.choices, value)
     elif item.kind == "flag":
         body = _options((("yes", "Yes"), ("no", "No")), value)
-    else:  # size: grouped by system
+    else:  # size: only the chosen one here; forms.js adds the shared list (sizes.js)
         selected = value
         try:
             selected = units.parse_conductor_size(value).label if value else ""
         except units.UnitError:
             pass
-        groups = (("AWG", units.AWG_SIZES), ("kcmil", units.KCMIL_SIZES), ("mm²", units.METRIC_SIZES))
-        body = "".join(
-            f'<optgroup label="{_attr(name)}">{_options(((s, s) for s in sizes), selected)}</optgroup>'
-            for name, sizes in groups
+        body = _options(((selected, selected),), selected)
+        return (
+            f'<select id="{field_id}" name="{_attr(item.name)}" aria-describedby="{described}" '
+            f'data-sizes data-default="{_attr(selected)}">{body}</select>'
         )
     return (
-        f'<select id="{field_id}" name="{_attr(item.name)}" aria-describedby="{described}">'
-        f"{body}</select>"
+        f'<select id="{field_id}" name="{_attr(item.name)}" aria-describedby="{described}" '
+        f'data-default="{_attr(value)}">{body}</select>'
     )
 
 
-def _field(item, prefix, value, datalist_id):
+# The conductor sizes every size field offers, by system: one shared module (assets/js/sizes.js)
+# instead of a copy in every select of every page.
+SIZE_GROUPS = (("AWG", "na", units.AWG_SIZES), ("kcmil", "na", units.KCMIL_SIZES),
+               ("mm²", "iec", units.METRIC_SIZES))
+
+
+def sizes_module():
+    """Text of assets/js/sizes.js: the standard sizes by group, with the system each belongs to."""
+    groups = [{"label": label, "system": system, "sizes": list(sizes)}
+              for label, system, sizes in SIZE_GROUPS]
+    return ("// Generated by build/forms.py from calc.units: the conductor sizes every size field "
+            "offers.\nexport const SIZE_GROUPS = " + json.dumps(groups, ensure_ascii=False) + ";\n")
+
+
+def _field(item, prefix, value, datalist_id, region="na"):
     field_id, help_id, msg_id = _field_ids(prefix, item.name)
     described = f"{help_id} {msg_id}"
-    unit = f' <span class="fb-field__unit">{escape(item.unit)}</span>' if item.unit else ""
+    shown = LENGTH_UNITS[region] if _is_length(item) else units.unit_symbol(item.unit)
+    unit = f' <span class="fb-field__unit">{escape(shown)}</span>' if item.unit else ""
+    label = _LABEL_UNIT.sub("", item.label) if _is_length(item) else item.label
     if item.kind == "quantity":
         control = _quantity_control(item, field_id, described, value, datalist_id)
     elif item.kind == "text":
@@ -100,10 +139,14 @@ def _field(item, prefix, value, datalist_id):
     group = f' data-group="{_attr(item.group)}"' if item.group else ""
     return (
         f'<div class="fb-field" data-field="{_attr(item.name)}"{group}>'
-        f'<label for="{field_id}">{escape(item.label)}{unit}</label>{control}'
+        f'<label for="{field_id}">{escape(label)}{unit}</label>{control}'
         f'<p class="fb-field__help" id="{help_id}">{help_text}</p>'
         f'<p class="fb-field__msg" id="{msg_id}" role="alert" hidden></p></div>'
     )
+
+
+# A unit in a label, "(m)" or "(ft)": the unit span says it, in the page's system.
+_LABEL_UNIT = re.compile(r"\s*\((?:m|ft)\)$")
 
 
 def _output(item):
@@ -113,6 +156,41 @@ def _output(item):
         f'<dd class="fb-out__value" data-output="{_attr(item.name)}" data-unit="{_attr(unit)}">'
         "—</dd></div>"
     )
+
+
+def short_label(label):
+    """An output's label without its parenthetical qualifications, for the summary."""
+    return re.sub(r"\s*\([^()]*\)", "", label).strip() or label
+
+
+def _summary(calculator, prefix):
+    """The answer first (issue 12): the verdict and the outputs that answer the page's question,
+    above the result; sticky on a phone while the inputs are edited; a tap goes to the result."""
+    labels = {item.name: item.label for item in calculator.outputs}
+    outputs = "".join(
+        f'<span class="fb-summary__out"><span class="fb-summary__label">'
+        f"{escape(short_label(labels[name]))}</span>"
+        f'<span class="fb-summary__value" data-summary-output="{_attr(name)}">—</span></span>'
+        for name in summary_outputs(calculator) if name in labels
+    )
+    return (
+        f'<a class="fb-summary" data-summary href="#{prefix}-result" hidden>'
+        '<span class="fb-summary__verdict fb-verdict--none" data-verdict="none">'
+        '<span class="fb-summary__badge"></span><span class="fb-summary__text"></span></span>'
+        f'<span class="fb-summary__outs">{outputs}</span>'
+        '<span class="fb-summary__more">Full result<span aria-hidden="true"> ↓</span></span></a>'
+    )
+
+
+def _unit_switch(prefix):
+    """The display system, one setting for the device (forms.js keeps it in localStorage)."""
+    options = "".join(
+        f'<label class="fb-units__option"><input type="radio" name="{prefix}-units" '
+        f'value="{token}" data-units-choice> {escape(text)}</label>'
+        for token, text in UNIT_SWITCH
+    )
+    return (f'<fieldset class="fb-units" data-units-switch><legend class="fb-units__legend">'
+            f"Units</legend>{options}</fieldset>")
 
 
 def _section(kind, title, open_=False):
@@ -187,14 +265,16 @@ def render_calculator(calculator_id, config, preset=None, index=0):
     datalist_id = f"{prefix}-voltages"
     def field_html(item):
         value = preset.get(item.name, config.input_default(calculator_id, item))
-        return _field(item, prefix, _default_text(item, value), datalist_id)
+        return _field(item, prefix, _default_text(item, value), datalist_id, config.region)
 
     fields = "".join(field_html(item) for item in calculator.inputs if not item.advanced)
     advanced = [item for item in calculator.inputs if item.advanced]
     if advanced:
-        names = ", ".join(item.label.lower() for item in advanced[:3])
+        names = ", ".join(_LABEL_UNIT.sub("", item.label).lower() for item in advanced[:3])
+        # A preset that sets a folded input opens the fold: nothing that counts is hidden.
+        opened = " open" if any(item.name in preset for item in advanced) else ""
         fields += (
-            f'<details class="fb-more"><summary>More inputs ({escape(names)}…)</summary>'
+            f'<details class="fb-more"{opened}><summary>More inputs ({escape(names)}…)</summary>'
             f'<div class="fb-more__fields">{"".join(field_html(item) for item in advanced)}</div>'
             "</details>"
         )
@@ -206,15 +286,18 @@ def render_calculator(calculator_id, config, preset=None, index=0):
     outputs = "".join(_output(item) for item in calculator.outputs)
     return (
         f'<section class="fb-calc" data-calculator="{_attr(calculator_id)}" data-state="starting" '
-        f'data-engine="starting" data-index="{index}" aria-label="{_attr(calculator.title)}">'
+        f'data-engine="starting" data-index="{index}" data-region="{_attr(config.region)}" '
+        f'aria-label="{_attr(calculator.title)}">'
         '<p class="fb-engine" role="status" aria-live="polite">'
         '<span class="fb-engine__lamp" aria-hidden="true"></span>'
         '<span class="fb-engine__text">Calculator engine starting…</span></p>'
         '<noscript><p class="fb-engine">The live calculator needs JavaScript; the method and '
         "sources on this page read without it.</p></noscript>"
-        f'<form class="fb-form" novalidate autocomplete="off">{fields}{datalist}</form>'
+        + _summary(calculator, prefix)
+        + _unit_switch(prefix)
+        + f'<form class="fb-form" novalidate autocomplete="off">{fields}{datalist}</form>'
         '<p class="fb-general-msg" role="alert" hidden></p>'
-        '<div class="fb-result" aria-live="polite">'
+        + f'<div class="fb-result" id="{prefix}-result" tabindex="-1" aria-live="polite">'
         f'<dl class="fb-outputs">{outputs}</dl>'
         '<ul class="fb-checks"></ul>'
         '<div class="fb-charts"></div>'

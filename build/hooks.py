@@ -11,9 +11,10 @@ if str(ROOT) not in sys.path:  # MkDocs loads this file by path; calc/ and build
 
 from mkdocs.exceptions import PluginError  # noqa: E402
 from mkdocs.structure.files import File  # noqa: E402
+from mkdocs.utils import get_relative_url  # noqa: E402
 
-from build import embed, forms, package_calc, paths, reference, release_files, service_worker, team  # noqa: E402,E501
-from calc import __version__, api  # noqa: E402
+from build import embed, forms, home, not_found, package_calc, paths, reference, release_files, service_worker, slim, team  # noqa: E402,E501
+from calc import __version__  # noqa: E402
 
 CALCULATOR_LIST_MARKER = "<!-- fluxbook:calculator-list -->"
 
@@ -59,7 +60,18 @@ def on_files(files, config):
         files.append(File.generated(config, f"{paths.PYODIDE_SITE_DIR}/{name}", abs_src_path=str(source)))
     for source, destination in paths.VENDOR_FILES.items():
         files.append(File.generated(config, destination, abs_src_path=str(paths.NODE_MODULES / source)))
+    for source, (destination, name) in paths.VENDOR_MODULES.items():
+        files.append(File.generated(config, destination, content=vendor_module(source, name)))
+    files.append(File.generated(config, paths.SIZES_JS_SITE_PATH, content=forms.sizes_module()))
     return files
+
+
+def vendor_module(source, name):
+    """A minified classic script that defines the global `name`, as an ES module exporting it."""
+    text = (paths.NODE_MODULES / source).read_text(encoding="utf-8")
+    if not re.match(rf"(/\*.*?\*/\s*)?var {re.escape(name)}\s*=", text, re.DOTALL):
+        raise PluginError(f"{source} no longer starts by defining var {name}: check the vendored build")
+    return text.rstrip() + f"\nexport default {name};\n"
 
 
 def on_page_markdown(markdown, page, config, files):
@@ -74,16 +86,15 @@ def on_page_markdown(markdown, page, config, files):
 
 
 def _calculator_list(page):
-    """The home page's list of calculators, by group, in registry order."""
-    prefix = "../" * page.file.src_uri.count("/")
-    groups = {}
-    for entry in api.list_calculators():
-        groups.setdefault(entry["group"], []).append(
-            f"- [{entry['title']}]({prefix}calculators/{entry['id']}.md) — {entry['summary']}")
-    return "\n\n".join(f"### {group}\n\n" + "\n".join(lines) for group, lines in groups.items())
+    """The home page's launcher: filter, recent calculations, tiles by group (build/home.py)."""
+    try:
+        return home.launcher(lambda url: get_relative_url(url, page.url))
+    except home.HomeDataError as error:
+        raise PluginError(str(error)) from None
 
 
 def on_page_content(html, page, config, files):
+    html = slim.compact_cells(slim.exclude_long_tables(html))  # found by their page's words
     blocks = _state["blocks"].get(page.file.src_uri, [])
     if not blocks:
         return html
@@ -94,16 +105,27 @@ def on_page_content(html, page, config, files):
     )
 
 
+def _rebase_not_found(page):
+    """404.html styled under any sub-path (build/not_found.py), before the CSP hashes its scripts."""
+    if not page.exists():
+        return
+    try:
+        page.write_text(not_found.rebase(page.read_text(encoding="utf-8")), encoding="utf-8")
+    except not_found.NotFoundPageError as error:
+        raise PluginError(str(error)) from None
+
+
 CANONICAL_LINK = re.compile(r'\s*<link rel="canonical" href="[^"]*">')
 
 
 def on_post_page(output, page, config):
     # The canonical URL would carry the placeholder site_url; the copy's real address is unknown.
-    return CANONICAL_LINK.sub("", output)
+    return slim.collapse_whitespace(CANONICAL_LINK.sub("", output))
 
 
 def on_post_build(config):
     site_dir = Path(config.site_dir)
+    _rebase_not_found(site_dir / "404.html")
     release_files.strip_sitemap_dates(site_dir)
     release_files.write_server_headers(site_dir)
     try:

@@ -1,5 +1,11 @@
-"""calc/ as a reproducible zip for the browser: same sources, same bytes, every build."""
+"""calc/ as a reproducible zip for the browser: same sources, same bytes, every build.
 
+The browser gets the code without its docstrings and comments (ast.unparse of the parsed
+module): about a third fewer bytes to download and a smaller engine snapshot; nothing in calc/
+reads a docstring at run time, and tests/pyodide runs every vector against this very zip.
+"""
+
+import ast
 import hashlib
 import io
 import zipfile
@@ -25,8 +31,20 @@ def calc_zip_bytes(calc_dir=paths.CALC_DIR):
             )
             member.compress_type = zipfile.ZIP_DEFLATED
             member.external_attr = 0o644 << 16
-            archive.writestr(member, source.read_bytes())
+            archive.writestr(member, shipped_source(source.read_text(encoding="utf-8")))
     return buffer.getvalue()
+
+
+def shipped_source(text):
+    """Python source as shipped: the same code, without docstrings and comments."""
+    tree = ast.parse(text)
+    for node in ast.walk(tree):
+        body = getattr(node, "body", None)
+        if isinstance(node, (ast.Module, ast.FunctionDef, ast.AsyncFunctionDef, ast.ClassDef)) \
+                and body and isinstance(body[0], ast.Expr) \
+                and isinstance(body[0].value, ast.Constant) and isinstance(body[0].value.value, str):
+            node.body = body[1:] or [ast.Pass()]
+    return (ast.unparse(tree) + "\n").encode("utf-8")
 
 
 def sha256(data):

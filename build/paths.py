@@ -21,10 +21,18 @@ PYODIDE_FILES = (
 PYODIDE_SITE_DIR = f"assets/vendor/pyodide-{PYODIDE_VERSION}"
 CALC_ZIP_SITE_PATH = "assets/engine/calc.zip"
 VENDOR_FILES = {  # node_modules source -> site path
-    "uplot/dist/uPlot.esm.js": "assets/vendor/uplot/uPlot.esm.js",
     "uplot/dist/uPlot.min.css": "assets/vendor/uplot/uPlot.min.css",
     "workbox-window/build/workbox-window.prod.mjs": "assets/vendor/workbox/workbox-window.prod.mjs",
 }
+
+# Minified builds that ship only as a classic script `var NAME = ...;`, turned into an ES module
+# by adding `export default NAME;` (uPlot publishes no minified ESM; 51 kB against 145 kB):
+# node_modules source -> (site path, the global it defines).
+VENDOR_MODULES = {
+    "uplot/dist/uPlot.iife.min.js": ("assets/vendor/uplot/uPlot.esm.min.js", "uPlot"),
+}
+# The conductor sizes every size field offers, written once from calc.units (build/forms.py).
+SIZES_JS_SITE_PATH = "assets/js/sizes.js"
 
 # Files the build writes next to the site that the browser never needs (not precached).
 SERVER_HEADERS_FILE = "server-headers.txt"  # the headers a host should send (CSP with hashes)

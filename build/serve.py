@@ -56,6 +56,18 @@ class SiteHandler(http.server.SimpleHTTPRequestHandler):
             path = "/" + path[len(self.prefix):]
         return super().translate_path(path)
 
+    def send_error(self, code, message=None, explain=None):
+        # A missing address gets the site's own 404.html, as a team's server is set up to do.
+        page = Path(self.directory) / "404.html"
+        if code != 404 or not page.exists() or self.command != "GET":
+            return super().send_error(code, message, explain)
+        body = page.read_bytes()
+        self.send_response(404, message)
+        self.send_header("Content-Type", "text/html; charset=utf-8")
+        self.send_header("Content-Length", str(len(body)))
+        self.end_headers()
+        self.wfile.write(body)
+
     def end_headers(self):
         for name, value in self.site_headers:
             self.send_header(name, value)

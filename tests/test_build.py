@@ -160,7 +160,8 @@ def test_precache_holds_every_file_the_site_needs(built_site):
         assert f"{paths.PYODIDE_SITE_DIR}/{name}" in precached
     for needed in (paths.CALC_ZIP_SITE_PATH, "index.html", "calculators/transformer-currents/index.html",
                    "sitemap.xml", "search/search_index.json", "manifest.webmanifest",
-                   "assets/js/calc-worker.js", "assets/vendor/uplot/uPlot.esm.js"):
+                   "assets/js/calc-worker.js", "assets/vendor/uplot/uPlot.esm.min.js",
+                   paths.SIZES_JS_SITE_PATH):
         assert needed in precached, needed
     assert paths.SERVER_HEADERS_FILE not in precached
 
@@ -215,7 +216,8 @@ def test_organisation_from_the_team_file_reaches_the_pages(tmp_path):
     assert build_site(site, team_file).returncode == 0
     page = (site / "calculators/transformer-currents/index.html").read_text(encoding="utf-8")
     assert "Fluxbook · Dairy Barn Maintenance" in page
-    assert 'name="secondary_v" type="text" inputmode="decimal"' in page and 'value="400"' in page
+    # a voltage field takes letters ("400 V", "11 kV"): a text keyboard (issue 12)
+    assert 'name="secondary_v" type="text" inputmode="text"' in page and 'value="400"' in page
 
 
 def test_a_bad_team_file_fails_the_build(tmp_path):

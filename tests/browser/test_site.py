@@ -230,7 +230,7 @@ def test_a_run_sent_before_boot_waits_for_the_boot(context, site):
         return reply;
     }""")
     assert reply["id"] == 7 and "error" not in reply, reply
-    assert reply["result"]["ok"] is True
+    assert reply["result"]["ok"] is True, reply
     # 75 kVA / (√3 × 208 V) = 208.2 A, computed
     assert reply["result"]["outputs"]["secondary_a"]["value"] == pytest.approx(208.18, rel=1e-4)
 

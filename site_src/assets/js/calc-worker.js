@@ -16,6 +16,7 @@ const RESTORE_BUSY_MS = 30000; // a restore marked as begun this recently may be
 
 let runJson = null;
 let callJson = null; // calc.jobs.call_json: job files and saved records (issue 13)
+let batchJson = null; // calc.batch.call_json: a schedule of circuits (issue 14)
 let started = false;
 // The one ready promise, made at load: a run that arrives before the boot message waits for the
 // boot instead of failing.
@@ -197,6 +198,7 @@ async function fetchCalcZip(url) {
 function ready(pyodide, start) {
   runJson = pyodide.pyimport("calc.api").run_json;
   callJson = pyodide.pyimport("calc.jobs").call_json;
+  batchJson = pyodide.pyimport("calc.batch").call_json;
   const version = pyodide.pyimport("calc").__version__;
   self.postMessage(messages.stage("ready", version, start));
 }
@@ -281,13 +283,17 @@ self.onmessage = async (event) => {
     }
     return;
   }
-  if (message.type !== "run" && message.type !== "call") return;
+  if (message.type !== "run" && message.type !== "call" && message.type !== "batch") return;
   try {
     await booted;
     if (fatal) throw fatal;
     const text = message.type === "call"
       ? callJson(String(message.name), JSON.stringify(message.argument ?? null))
-      : runJson(String(message.calculator), JSON.stringify(message.inputs));
+      : message.type === "batch"
+        ? batchJson(String(message.name), JSON.stringify(message.argument ?? null))
+        : runJson(String(message.calculator), JSON.stringify(message.inputs),
+          // undefined reaches Python as None; null would arrive as pyodide's jsnull
+          message.display === "na" || message.display === "iec" ? message.display : undefined);
     self.postMessage(messages.reply(message.id, JSON.parse(text)));
     scheduleSave(0);
   } catch (error) {

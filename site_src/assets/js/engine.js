@@ -108,13 +108,20 @@ class Engine {
   }
 
   // A run asked for before the engine is ready waits for it; after a failure it is refused.
-  async run(calculator, inputs) {
-    return this.request((id) => messages.run(id, calculator, inputs));
+  // display: the unit system of the shown texts ("na" or "iec"; issue 12), values stay SI.
+  async run(calculator, inputs, display = null) {
+    return this.request((id) => messages.run(id, calculator, inputs, display));
   }
 
   // A job function of calc.jobs by name (calc.jobs.CALLS), JSON data in and out, as run.
   async call(name, argument) {
     return this.request((id) => messages.call(id, name, argument));
+  }
+
+  // A schedule function of calc.batch by name (calc.batch.CALLS), JSON data in and out, as run:
+  // the schedule page sends its rows a chunk at a time, so the page stays responsive.
+  async batch(name, argument) {
+    return this.request((id) => messages.batch(id, name, argument));
   }
 
   async request(makeMessage) {

@@ -2,15 +2,18 @@
 // navigation swaps pages without reloading, so set-up runs from document$ on every page.
 import { engine, STAGES, STARTS } from "./engine.js";
 import * as forms from "./forms.js";
-import { renderResult, clearResult } from "./results.js";
+import { renderResult, clearResult, markUpdating, wireSummary } from "./results.js";
 import { startOffline, onOffline, reportStorage } from "./pwa.js";
 import * as jobs from "./jobs.js"; // save to job, the single-calculation print, the jobs page
+import * as home from "./home.js"; // the home launcher and the recent calculations (issue 12)
+import * as a11y from "./a11y.js"; // scroll regions, Enter computes, chart key numbers (issue 15)
 
-const DEBOUNCE_MS = 250;
+const DEBOUNCE_MS = 120; // issue 12: at most 150 ms from the last keystroke to the run
 const OFFLINE_WORDS = {
   checking: "",
   stored: " · stored for offline use",
   unsupported: " · this browser cannot keep it offline",
+  insecure: " · to keep it for offline use, open it at an https:// address (or localhost)",
 };
 
 function setState(root, state) {
@@ -51,14 +54,16 @@ async function compute(root, roots) {
   const sequence = (root.fbSequence || 0) + 1;
   root.fbSequence = sequence;
   setState(root, "computing");
+  markUpdating(root); // the last result stays, marked, until the new one replaces it
   const inputs = forms.readInputs(root);
   let result;
   try {
-    result = await engine().run(root.dataset.calculator, inputs);
+    result = await engine().run(root.dataset.calculator, inputs, forms.displaySystem(root));
   } catch (error) {
     if (sequence !== root.fbSequence) return;
-    clearResult(root);
-    forms.showErrors(root, [{ field: null, message: `The calculation could not run: ${error.message || error}` }]);
+    const failure = [{ field: null, message: `The calculation could not run: ${error.message || error}` }];
+    clearResult(root, failure);
+    forms.showErrors(root, failure);
     setState(root, "error");
     return;
   }
@@ -66,14 +71,16 @@ async function compute(root, roots) {
   if (result.ok) {
     forms.clearMessages(root);
     renderResult(root, result);
+    a11y.describeCharts(root, result);
     jobs.afterResult(root, inputs, result);
     setState(root, "done");
   } else {
-    clearResult(root);
     forms.showErrors(root, result.errors);
+    clearResult(root, result.errors);
     setState(root, "error");
   }
   updateLink(roots);
+  if (result.ok) home.remember(root); // after the link holds these inputs
 }
 
 function copyLink(root) {
@@ -98,8 +105,13 @@ function copyLink(root) {
 function wire(root, roots) {
   if (root.fbWired) return;
   root.fbWired = true;
+  forms.prepare(root, (system) => {
+    for (const each of roots) forms.setSystem(each, system, { remember: true });
+    for (const each of roots) if (each.fbWired && each.dataset.state !== "starting") compute(each, roots);
+  });
   forms.applyParams(root, window.location.search);
   forms.linkGroups(root);
+  wireSummary(root);
   let timer = null;
   const schedule = () => {
     clearTimeout(timer);
@@ -112,6 +124,7 @@ function wire(root, roots) {
   root.querySelector('[data-action="copy-link"]').addEventListener("click", () => copyLink(root));
   root.querySelector('[data-action="print"]').addEventListener("click", () => jobs.printCalculation(root));
   jobs.wireSave(root);
+  a11y.wireCalculator(root);
   const running = engine();
   root.fbOffline = offlineState;
   listenToEngine(running);
@@ -144,6 +157,8 @@ let offlineState = "checking";
 
 function initPage() {
   jobs.initPage();
+  home.initPage();
+  a11y.initPage();
   currentRoots = Array.from(document.querySelectorAll("[data-calculator]"));
   for (const root of currentRoots) wire(root, currentRoots);
   const report = document.querySelector("[data-offline-report]");
@@ -160,6 +175,8 @@ onOffline((state) => {
   if (report) reportStorage(report);
 });
 startOffline();
+// The site's root, for the "not found" page served at any address (build/not_found.py).
+try { localStorage.setItem("fluxbook-root", new URL("../../", import.meta.url).href); } catch (error) { /* no storage */ }
 if (window.document$ && typeof window.document$.subscribe === "function") {
   window.document$.subscribe(initPage);
 } else {

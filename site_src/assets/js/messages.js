@@ -1,8 +1,12 @@
 // Message shapes between a page and the calculator worker (one place, so both sides agree).
 //
 // page -> worker   {type: "boot", indexURL, calcZipURL, calcSha256, snapshot}   once, at start
-//                  {type: "run", id, calculator, inputs}         inputs: {name: text or number}
+//                  {type: "run", id, calculator, inputs, display}
+//                                                  inputs: {name: text or number}; display: the
+//                                                  unit system of shown texts, "na" | "iec" | null
 //                  {type: "call", id, name, argument}            a job function (calc.jobs.CALLS)
+//                  {type: "batch", id, name, argument}           a schedule function
+//                                                                (calc.batch.CALLS: parse, check)
 // worker -> page   {type: "stage", stage, detail, start?}        start-up progress (STAGES);
 //                                                                "ready" carries start (STARTS)
 //                  {type: "reply", id, result}                   the contract's JSON, parsed
@@ -38,8 +42,10 @@ export const SNAPSHOT_STATES = Object.freeze({
 export const boot = (indexURL, calcZipURL, { calcSha256 = "", snapshot = "use" } = {}) => ({
   type: "boot", indexURL, calcZipURL, calcSha256, snapshot,
 });
-export const run = (id, calculator, inputs) => ({ type: "run", id, calculator, inputs });
+export const run = (id, calculator, inputs, display = null) =>
+  ({ type: "run", id, calculator, inputs, display });
 export const call = (id, name, argument) => ({ type: "call", id, name, argument });
+export const batch = (id, name, argument) => ({ type: "batch", id, name, argument });
 export const stage = (name, detail = "", start = undefined) =>
   (start ? { type: "stage", stage: name, detail, start } : { type: "stage", stage: name, detail });
 export const snapshot = (state, detail = "") => ({ type: "snapshot", state, detail });

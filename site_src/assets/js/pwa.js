@@ -45,6 +45,11 @@ function showUpdatePrompt(workbox) {
 }
 
 export function startOffline() {
+  // Browsers keep a site for offline use only from a secure address: https://, or localhost.
+  if (!window.isSecureContext) {
+    setOffline("insecure");
+    return;
+  }
   if (!("serviceWorker" in navigator)) {
     setOffline("unsupported");
     return;
@@ -67,6 +72,9 @@ export async function reportStorage(element) {
     checking: "Checking whether Fluxbook is stored on this device…",
     stored: "Fluxbook is stored on this device and works with no network.",
     unsupported: "This browser cannot keep Fluxbook for offline use; it needs a connection.",
+    insecure: `Fluxbook cannot be kept for offline use from this address (${location.origin}): ` +
+      "browsers keep a site offline only from an https:// address, or from localhost. Ask " +
+      "whoever hosts it for the https:// address; until then it needs a connection.",
   };
   lines.push(words[offline.state] || words.checking);
   if (navigator.storage && navigator.storage.estimate) {
