@@ -14,7 +14,7 @@ SUMMARY_OUTPUTS = {
     "wire-size": ("conductor_area", "drop_pct"),
     "max-length": ("length", "drop_pct"),
     "line-loss": ("loss_w", "alt_total_loss_w", "annual_saving"),
-    "circuit-check": ("verdict", "governing", "fix"),
+    "circuit-check": ("governing", "fix"),  # the verdict is the summary's own badge
     # Transformers
     "transformer-currents": ("primary_a", "secondary_a"),
     "transformer-size": ("rating", "loading_pct"),

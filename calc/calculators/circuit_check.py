@@ -590,7 +590,7 @@ def _view(inputs):
 
     status, governing, fix = judged.verdict()
     result.output("verdict", status, status)
-    result.output("governing", governing, governing)
+    result.output("governing", governing, governing.replace("_", " "))  # value: the check's name
     if fix:
         result.output("fix", fix, fix)
     _out(result, "load_a", c.current, "A")

@@ -62,8 +62,11 @@ function fillSummary(root, result) {
   if (!summary) return;
   const status = verdictOf(result.checks);
   // The worst check speaks for the result; the plausibility check only when nothing else does.
+  // A calculator that names its governing check (circuit-check) is taken at its word.
+  const named = result.outputs.governing && result.outputs.governing.value;
   const governing = VERDICT_ORDER.includes(status)
-    ? result.checks.find((check) => check.status === status && check.name !== "plausibility") ||
+    ? result.checks.find((check) => check.status === status && check.name === named) ||
+      result.checks.find((check) => check.status === status && check.name !== "plausibility") ||
       result.checks.find((check) => check.status === status)
     : null;
   setVerdict(summary, status, VERDICT_WORDS[status],
@@ -71,6 +74,8 @@ function fillSummary(root, result) {
   for (const value of summary.querySelectorAll("[data-summary-output]")) {
     const output = result.outputs[value.dataset.summaryOutput];
     value.textContent = output ? output.display : "n/a";
+    // words (a governing check, a fix) wrap; a number with its unit stays on one line
+    value.classList.toggle("fb-summary__value--words", !!output && typeof output.value === "string");
     value.closest(".fb-summary__out").hidden = !output;
   }
   summary.dataset.state = "result";
