@@ -413,23 +413,46 @@ def steady_state(motor, resistance):
     return speed, motor.quasi_current(resistance, speed)
 
 
-def _rates(motor, resistance, current, speed, quasi):
-    """(di/dt, dω/dt). A load never drives the rotor backwards from standstill (it holds)."""
-    if quasi:
-        current = motor.quasi_current(resistance, speed)
-        di = 0.0
-    else:
-        di = (motor.voltage - resistance * current - motor.emf(current, speed)) / motor.inductance
-    net = motor.torque(current) - motor.load_at(speed)
-    dw = 0.0 if speed <= 0.0 and net < 0.0 else net / motor.inertia
-    return di, dw
+def _rates_of(motor, resistance, quasi):
+    """rates(current, speed) -> (di/dt, dω/dt) for one motor and circuit resistance.
+
+    The arithmetic of DCMotor.emf, torque, load_at and quasi_current written out once with the
+    motor's numbers bound, because the run-up calls it four times a step (the browser's
+    recompute time). A load never drives the rotor backwards from standstill (it holds).
+    """
+    series, k, voltage = motor.series, motor.constant, motor.voltage
+    inductance, inertia, damping = motor.inductance, motor.inertia, motor.damping
+    load, load_torque, load_speed = motor.load, motor.load_torque, motor.load_speed
+    fan, constant_load = load == "fan", load == "constant"
+
+    def rates(current, speed):
+        if quasi:
+            current = (voltage / (resistance + k * speed) if series
+                       else (voltage - k * speed) / resistance)
+            di = 0.0
+        else:
+            di = (voltage - resistance * current - k * (current if series else 1.0) * speed) \
+                / inductance
+        friction = damping * speed
+        if fan:
+            opposing = load_torque * (speed / load_speed) ** 2 + friction
+        elif constant_load:
+            opposing = load_torque + friction
+        else:
+            opposing = friction
+        net = k * (current * current if series else current) - opposing
+        dw = 0.0 if speed <= 0.0 and net < 0.0 else net / inertia
+        return di, dw
+
+    return rates
 
 
-def _rk4(motor, resistance, current, speed, h, quasi):
-    a1, b1 = _rates(motor, resistance, current, speed, quasi)
-    a2, b2 = _rates(motor, resistance, current + 0.5 * h * a1, speed + 0.5 * h * b1, quasi)
-    a3, b3 = _rates(motor, resistance, current + 0.5 * h * a2, speed + 0.5 * h * b2, quasi)
-    a4, b4 = _rates(motor, resistance, current + h * a3, speed + h * b3, quasi)
+def _rk4(motor, resistance, current, speed, h, quasi, rates=None):
+    rates = rates or _rates_of(motor, resistance, quasi)
+    a1, b1 = rates(current, speed)
+    a2, b2 = rates(current + 0.5 * h * a1, speed + 0.5 * h * b1)
+    a3, b3 = rates(current + 0.5 * h * a2, speed + 0.5 * h * b2)
+    a4, b4 = rates(current + h * a3, speed + h * b3)
     speed = speed + h / 6.0 * (b1 + 2.0 * b2 + 2.0 * b3 + b4)
     if quasi:
         return motor.quasi_current(resistance, speed), speed
@@ -438,23 +461,35 @@ def _rk4(motor, resistance, current, speed, h, quasi):
 
 def _fastest_rate(motor, resistance, current, speed, quasi):
     """Largest |eigenvalue| of the linearised equations at one state [1/s]."""
-    mech = motor.load_slope(speed) / motor.inertia
-    if motor.series:
-        de_di, de_dw, dt_di = motor.constant * speed, motor.constant * current, \
-            2.0 * motor.constant * current
-    else:
-        de_di, de_dw, dt_di = 0.0, motor.constant, motor.constant
-    if quasi:
-        # i = i(ω): dT/dω = dT/di × di/dω, di/dω = −(∂E/∂ω) / (R + ∂E/∂i)
-        return abs(-dt_di * de_dw / (resistance + de_di) / motor.inertia - mech)
-    a, b = -(resistance + de_di) / motor.inductance, -de_dw / motor.inductance
-    c, d = dt_di / motor.inertia, -mech
-    half_trace, det = 0.5 * (a + d), a * d - b * c
-    disc = half_trace * half_trace - det
-    if disc >= 0.0:
-        root = math.sqrt(disc)
-        return max(abs(half_trace + root), abs(half_trace - root))
-    return math.sqrt(det)  # complex pair: |λ|² = det
+    return _fastest_rate_of(motor, resistance, quasi)(current, speed)
+
+
+def _fastest_rate_of(motor, resistance, quasi):
+    """fastest(current, speed) -> _fastest_rate's value, the motor's numbers bound (run-up)."""
+    series, k, inductance, inertia = motor.series, motor.constant, motor.inductance, motor.inertia
+    fan, load_torque, load_speed, damping = (motor.load == "fan", motor.load_torque,
+                                             motor.load_speed, motor.damping)
+
+    def fastest(current, speed):
+        slope = (2.0 * load_torque * speed / load_speed ** 2 if fan else 0.0) + damping
+        mech = slope / inertia
+        if series:
+            de_di, de_dw, dt_di = k * speed, k * current, 2.0 * k * current
+        else:
+            de_di, de_dw, dt_di = 0.0, k, k
+        if quasi:
+            # i = i(ω): dT/dω = dT/di × di/dω, di/dω = −(∂E/∂ω) / (R + ∂E/∂i)
+            return abs(-dt_di * de_dw / (resistance + de_di) / inertia - mech)
+        a, b = -(resistance + de_di) / inductance, -de_dw / inductance
+        c, d = dt_di / inertia, -mech
+        half_trace, det = 0.5 * (a + d), a * d - b * c
+        disc = half_trace * half_trace - det
+        if disc >= 0.0:
+            root = math.sqrt(disc)
+            return max(abs(half_trace + root), abs(half_trace - root))
+        return math.sqrt(det)  # complex pair: |λ|² = det
+
+    return fastest
 
 
 def stage_resistances(armature_r, sections):
@@ -568,15 +603,19 @@ def _integrate(motor, totals, steadies, switch_current, longest, quasi):
     time, currents, speeds = [t], [current], [speed]
     switches, peak = [], abs(current)
     stop, settled, hung, steps = None, False, False, 0
+    rates, rates_stage = None, None
     while steps < MAX_STEPS:
         total = totals[stage]
-        h = min(longest, STEP_RATE / _fastest_rate(motor, total, current, speed, quasi))
-        new_i, new_w = _rk4(motor, total, current, speed, h, quasi)
+        if rates_stage != stage:
+            rates, fastest = _rates_of(motor, total, quasi), _fastest_rate_of(motor, total, quasi)
+            rates_stage = stage
+        h = min(longest, STEP_RATE / fastest(current, speed))
+        new_i, new_w = _rk4(motor, total, current, speed, h, quasi, rates)
         steps += 1
         crossing = stage < last and current > switch_current >= new_i
         if crossing:
             h, new_i, new_w, steps = _locate_switch(motor, total, current, speed, h, quasi,
-                                                    switch_current, new_i, steps)
+                                                    switch_current, new_i, steps, rates)
         t += h
         current, speed = new_i, new_w
         if crossing:
@@ -606,14 +645,14 @@ def _integrate(motor, totals, steadies, switch_current, longest, quasi):
                  quasi, steps)
 
 
-def _locate_switch(motor, total, current, speed, h, quasi, target, new_i, steps):
+def _locate_switch(motor, total, current, speed, h, quasi, target, new_i, steps, rates=None):
     """Shorten a step to end where the current reaches `target` (three regula-falsi passes)."""
     low, high = 0.0, 1.0
     g_low, g_high = current - target, new_i - target
     fraction, state = 1.0, None
     for _ in range(3):
         fraction = low + (high - low) * g_low / (g_low - g_high) if g_low != g_high else high
-        state = _rk4(motor, total, current, speed, fraction * h, quasi)
+        state = _rk4(motor, total, current, speed, fraction * h, quasi, rates)
         steps += 1
         g = state[0] - target
         if g > 0.0:
