@@ -15,6 +15,7 @@ import functools
 import io
 import json
 import os
+from concurrent.futures import BrokenExecutor  # a process pool whose worker died raises it
 from typing import NamedTuple
 
 from calc import api, jobs
@@ -207,14 +208,38 @@ def run_rows(calculator_id, rows, region=None, processes=None, full=False, rende
             yield from check_rows(calculator_id, chunk, region, full, render, display)
         return
     work = functools.partial(_check_chunk, calculator_id, region, full, render, display)
+    here = functools.partial(check_rows, calculator_id, region=region, full=full, render=render,
+                             display=display)
     with pool:
         pending = collections.deque()
+        broken = False
+
+        def take():
+            """The oldest chunk's records; where a worker died, that chunk is checked here."""
+            nonlocal broken
+            future, chunk = pending.popleft()
+            if not broken:
+                try:
+                    return future.result()
+                except BrokenExecutor:
+                    broken = True  # a worker was killed: no record is lost, the rest run here
+            return list(here(chunk))
+
         for chunk in _chain(first, second, pieces):
-            pending.append(pool.apply_async(work, (chunk,)))
+            if broken:
+                while pending:
+                    yield from take()
+                yield from here(chunk)
+                continue
+            try:
+                pending.append((pool.submit(work, chunk), chunk))
+            except BrokenExecutor:
+                broken = True
+                pending.append((None, chunk))
             if len(pending) >= processes * WINDOW_PER_PROCESS:
-                yield from pending.popleft().get()
+                yield from take()
         while pending:
-            yield from pending.popleft().get()
+            yield from take()
 
 
 def _chain(first, second, rest):
@@ -225,13 +250,23 @@ def _chain(first, second, rest):
 
 
 def _pool(processes):
-    """A pool of worker processes, or None where none can be started (Pyodide, a sandbox)."""
+    """A pool of worker processes, or None where none can be started (Pyodide, a sandbox).
+
+    Forked where this process runs one thread (the command line: the quickest start); where
+    other threads run (a test runner, an embedding program) a fork could copy a held lock into
+    the child, so the workers start from a fork server (or spawned) instead.
+    """
     try:
         import multiprocessing
+        import threading
+        from concurrent.futures import ProcessPoolExecutor
 
         methods = multiprocessing.get_all_start_methods()
-        context = multiprocessing.get_context("fork" if "fork" in methods else None)
-        return context.Pool(processes)
+        if "fork" in methods and threading.active_count() == 1:
+            method = "fork"
+        else:
+            method = "forkserver" if "forkserver" in methods else "spawn"
+        return ProcessPoolExecutor(processes, mp_context=multiprocessing.get_context(method))
     except (ImportError, OSError, NotImplementedError, ValueError, RuntimeError):
         return None
 

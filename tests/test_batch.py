@@ -271,3 +271,25 @@ def test_the_page_takes_at_most_its_row_limit(monkeypatch):
     monkeypatch.setattr(batch, "MAX_PAGE_ROWS", 5)
     parsed = batch.parse_text({"text": _many(6)})
     assert not parsed["ok"] and "at most 5 rows" in parsed["errors"][0]["message"]
+
+
+def test_a_worker_that_dies_loses_no_row(monkeypatch):
+    # A worker killed mid-run (out of memory, a signal) used to leave the pool waiting for ever;
+    # the chunks it held, and the rest, are now checked in this process, in order.
+    import os
+    import signal
+    from concurrent.futures import ProcessPoolExecutor
+
+    def dying_pool(processes):
+        pool = ProcessPoolExecutor(processes)
+        pool.submit(os.kill, os.getpid(), 0).result()  # the pool is up
+        for pid in list(pool._processes):
+            os.kill(pid, signal.SIGKILL)
+        return pool
+
+    text = _many(600)
+    monkeypatch.setattr(batch, "_pool", dying_pool)
+    records = list(batch.run_rows("circuit-check", rows(text), processes=2))
+    expected = list(batch.run_rows("circuit-check", rows(text), processes=1))
+    assert [r["row"] for r in records] == [r["row"] for r in expected]
+    assert [r["verdict"] for r in records] == [r["verdict"] for r in expected]
