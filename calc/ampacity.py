@@ -138,9 +138,8 @@ _ = None
 # and F (single-core cables touching in free air; copper from 25 mm²): Tables B.52.10 (PVC,
 # copper), B.52.11 (PVC, aluminium), B.52.12 (XLPE, copper), B.52.13 (XLPE, aluminium); F for
 # two loaded conductors is column 4 (flat touching), for three column 5 (trefoil).
-# From memory (IEC 60364-5-52:2009), compared row by row with two public transcriptions of these
-# tables in code, which the search index does not name (so they are not cited); they agree with
-# these values in every cell compared. Aluminium in method F is not given here (not confirmed).
+# From memory (IEC 60364-5-52:2009 Annex B), to be checked against the standard. Aluminium in
+# method F is not given here (not recalled with confidence).
 IEC_CAPACITY_A = {
     ("pvc", 2, "cu"): {
         "A1": (14.5, 19.5, 26, 34, 46, 61, 80, 99, 119, 151, 182, 210, 240, 273, 321, 367),
@@ -235,8 +234,7 @@ IEC_FREE_AIR_TABLES = {("pvc", "cu"): "B.52.10", ("pvc", "al"): "B.52.11",
 
 # Table B.52.14: correction for ambient air other than 30 °C, and Table B.52.15: for ground
 # temperatures other than 20 °C (methods D1, D2): (ambient [°C], PVC, XLPE/EPR); None: PVC may
-# not be used there. From memory; B.52.14 agrees with the two transcriptions above and with a
-# third that quotes the 2009 text, B.52.15 with one transcription.
+# not be used there. From memory (IEC 60364-5-52:2009).
 IEC_AIR_FACTORS = (
     (10, 1.22, 1.15), (15, 1.17, 1.12), (20, 1.12, 1.08), (25, 1.06, 1.04), (30, 1.00, 1.00),
     (35, 0.94, 0.96), (40, 0.87, 0.91), (45, 0.79, 0.87), (50, 0.71, 0.82), (55, 0.61, 0.76),
@@ -250,12 +248,12 @@ IEC_GROUND_FACTORS = (
 IEC_AIR_REFERENCE_C, IEC_GROUND_REFERENCE_C = 30.0, 20.0
 
 # Table B.52.17: reduction for groups of circuits or multi-core cables, by arrangement: (counts,
-# factors). Item 1, bunched in air, on a surface, embedded or enclosed (read, as transcribed in
-# the two transcriptions above; they agree); item 2, single layer on a wall, floor or
-# unperforated tray, and item 4, single layer on a perforated tray: from memory. For single
+# factors). Item 1, bunched in air, on a surface, embedded or enclosed; item 2, single layer on
+# a wall, floor or unperforated tray; item 4, single layer on a perforated tray: all from
+# memory (IEC 60364-5-52:2009). For single
 # layers the standard gives no further reduction beyond nine circuits.
 # Tables B.52.18 (direct in the ground, D2) and B.52.19 (multi-core cables in single-way ducts,
-# D1), cables or ducts touching, 2 to 6 circuits: from memory, agreeing with one transcription.
+# D1), cables or ducts touching, 2 to 6 circuits: from memory (IEC 60364-5-52:2009).
 GROUPING = {
     "bunched": ((1, 2, 3, 4, 5, 6, 7, 8, 9, 12, 16, 20),
                 (1.00, 0.80, 0.70, 0.65, 0.60, 0.57, 0.54, 0.52, 0.50, 0.45, 0.41, 0.38)),

@@ -447,8 +447,8 @@ def _rates_of(motor, resistance, quasi):
     return rates
 
 
-def _rk4(motor, resistance, current, speed, h, quasi, rates=None):
-    rates = rates or _rates_of(motor, resistance, quasi)
+def _rk4(motor, resistance, current, speed, h, quasi, rates):
+    """One RK4 step; `rates` is _rates_of(motor, resistance, quasi)."""
     a1, b1 = rates(current, speed)
     a2, b2 = rates(current + 0.5 * h * a1, speed + 0.5 * h * b1)
     a3, b3 = rates(current + 0.5 * h * a2, speed + 0.5 * h * b2)
@@ -645,7 +645,7 @@ def _integrate(motor, totals, steadies, switch_current, longest, quasi):
                  quasi, steps)
 
 
-def _locate_switch(motor, total, current, speed, h, quasi, target, new_i, steps, rates=None):
+def _locate_switch(motor, total, current, speed, h, quasi, target, new_i, steps, rates):
     """Shorten a step to end where the current reaches `target` (three regula-falsi passes)."""
     low, high = 0.0, 1.0
     g_low, g_high = current - target, new_i - target

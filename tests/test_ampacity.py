@@ -181,8 +181,8 @@ def iec(size, material="cu", insulation="pvc", loaded=2, method="C", ambient=30,
     return ampacity.iec_capacity(size, material, insulation, loaded, method, ambient, circuits)
 
 
-# IEC 60364-5-52:2009 Annex B, from memory and agreeing with two public transcriptions (not
-# citable by name): (table, insulation, loaded, material, method, size, A).
+# IEC 60364-5-52:2009 Annex B, from memory: (table, insulation, loaded, material, method, size,
+# A).
 ANNEX_B_ROWS = [
     ("B.52.2", "pvc", 2, "cu", "B1", "2.5 mm2", 24), ("B.52.2", "pvc", 2, "cu", "C", "300 mm2", 530),
     ("B.52.2", "pvc", 2, "al", "B1", "16 mm2", 60), ("B.52.3", "xlpe", 2, "cu", "B1", "95 mm2", 306),
@@ -232,7 +232,7 @@ def test_annex_b_has_the_shape_of_an_ampacity_table():
                 assert all(c >= w for c, w in zip(cells, columns["A1"]) if c and w)
 
 
-# Table B.52.14 (air, 30 °C) and B.52.15 (ground, 20 °C), from memory with public transcriptions.
+# IEC 60364-5-52:2009 Table B.52.14 (air, 30 °C) and B.52.15 (ground, 20 °C), from memory.
 @pytest.mark.parametrize("ambient, insulation, method, factor", [
     (30, "pvc", "C", 1.0), (30.01, "pvc", "C", 0.94), (60, "pvc", "C", 0.50), (80, "xlpe", "E", 0.41),
     (5, "pvc", "C", 1.22), (20, "pvc", "D2", 1.0), (20.01, "pvc", "D2", 0.95), (60, "pvc", "D1", 0.45),
@@ -249,7 +249,7 @@ def test_no_capacity_past_the_temperature_tables(ambient, insulation, method):
     assert caught.value.parameter == "ambient_c"
 
 
-# B.52.17 item 1 read in two transcriptions; items 2 and 4, B.52.18 and B.52.19 from memory.
+# IEC 60364-5-52:2009 Table B.52.17 items 1, 2 and 4, B.52.18 and B.52.19, from memory.
 @pytest.mark.parametrize("method, circuits, factor", [
     ("B2", 1, 1.0), ("B2", 2, 0.80), ("A1", 9, 0.50), ("B1", 10, 0.45), ("B1", 12, 0.45),
     ("B1", 13, 0.41), ("B1", 20, 0.38), ("C", 9, 0.70), ("C", 15, 0.70), ("E", 3, 0.82),

@@ -63,8 +63,7 @@ SOURCE_NEC = (
 SOURCE_IEC = (
     "IEC 60364-5-52:2009 Annex B: capacities Tables B.52.2 to B.52.5 and B.52.10 to B.52.13, "
     "ambient B.52.14 (air) and B.52.15 (ground), grouping B.52.17 to B.52.19: from memory, "
-    "compared row by row with two public transcriptions of the tables (not citable: the search "
-    "index names neither); every cell compared agreed. Soil thermal resistivity 2.5 K·m/W "
+    "to be checked against the standard. Soil thermal resistivity 2.5 K·m/W "
     "(the tables' reference) is assumed."
 )
 

@@ -74,11 +74,6 @@ CAUTION_AMPACITY = (
     "grouping or ambient temperature are not checked here; size conductors by your code.")
 
 
-def _per_length(value):
-    """Ω/m in the display system's unit: Ω/kft North American, Ω/km IEC (the page's switch)."""
-    return fq(value, "ohm/m")
-
-
 def _geometry_text(inputs, z):
     """The geometry of the reactance: insulation, formation and how the spacing was found."""
     insulation = dict(conductors.INSULATIONS)[z.insulation].split(" (")[0]
@@ -102,12 +97,12 @@ def _steps(result, inputs, z, z_085, area_display, metric):
                 f"{LAY_FACTOR_STRANDED})", "R = ρ20 [1 + α20 (T − 20)] / A × k_lay",
                 f"= {rho20:.6g} Ω·mm²/m × [1 + {ALPHA_20C[material]} × ({temperature:g} − 20)] / "
                 f"{size.area_m2 * 1e6:.4g} mm² × {LAY_FACTOR_STRANDED} = "
-                f"{_per_length(z.r_dc_physics)}")
+                f"{fq(z.r_dc_physics, 'ohm/m')}")
     if entry is not None:
         r_ref, t_ref, alpha_ref, source = entry
         result.step(f"DC resistance from the table: {source}", "R = R_ref [1 + α (T − T_ref)]",
-                    f"= {_per_length(r_ref)} × [1 + {alpha_ref} × ({temperature:g} − "
-                    f"{t_ref:g})] = {_per_length(z.r_dc_table)}")
+                    f"= {fq(r_ref, 'ohm/m')} × [1 + {alpha_ref} × ({temperature:g} − "
+                    f"{t_ref:g})] = {fq(z.r_dc_table, 'ohm/m')}")
     if frequency > 0:
         result.step("Skin effect (IEC 60287-1-1 2.1.2)",
                     "x_s² = 8πf / R' × 10⁻⁷; y_s = x_s⁴ / (192 + 0.8 x_s⁴)",
@@ -120,8 +115,8 @@ def _steps(result, inputs, z, z_085, area_display, metric):
         steel = f" × {STEEL_CONDUIT_AC_FACTOR} (steel conduit)" if raceway == "steel" else ""
         result.step("AC resistance with the skin and proximity effect",
                     "R_ac = R_dc [1 + k (y_s + y_p)]",
-                    f"= {_per_length(z.r_dc)} × [1 + ({z.y_s:.3g} + {z.y_p:.3g}){steel}] "
-                    f"= {_per_length(model)}")
+                    f"= {fq(z.r_dc, 'ohm/m')} × [1 + ({z.y_s:.3g} + {z.y_p:.3g}){steel}] "
+                    f"= {fq(model, 'ohm/m')}")
         if z.r_ac_basis == "table9":
             where = f", {z.table_note}" if z.table_note else ""
             result.step(f"AC resistance from NEC Chapter 9 Table 9 ({raceway} conduit{where}): "
@@ -129,13 +124,13 @@ def _steps(result, inputs, z, z_085, area_display, metric):
                         "rounding, so the table's stands, moved to this temperature and frequency",
                         f"R_ac = R_ac,9 × R_ac(T, f) / R_ac({TABLE9_TEMPERATURE_C:g} °C, "
                         f"{TABLE9_FREQUENCY_HZ:g} Hz)",
-                        f"= {_per_length(z.r_ac_table9)} × "
-                        f"{z.r_ac / z.r_ac_table9:.4g} = {_per_length(z.r_ac)}")
+                        f"= {fq(z.r_ac_table9, 'ohm/m')} × "
+                        f"{z.r_ac / z.r_ac_table9:.4g} = {fq(z.r_ac, 'ohm/m')}")
         if z.x_basis == "table9":
             where = f" ({z.table_note})" if z.table_note else ""
             result.step(f"Series reactance from NEC Chapter 9 Table 9{where} (method table)",
                         f"X = XL_9 × f / {TABLE9_FREQUENCY_HZ:g} Hz",
-                        f"= {_per_length(z.x)}")
+                        f"= {fq(z.x, 'ohm/m')}")
         steel_x = f" × {STEEL_CONDUIT_X_FACTOR}" if raceway == "steel" else ""
         strands = conductors.strand_count(size)
         result.step(f"Series reactance from the geometry ({_geometry_text(inputs, z)}): GMR = "
@@ -143,16 +138,16 @@ def _steps(result, inputs, z, z_085, area_display, metric):
                     f"GMD = {z.gmd * 1e3:.4g} mm",
                     "X = 2πf × 2×10⁻⁷ × ln(GMD / GMR)" + steel_x,
                     f"= 2π × {frequency:g} Hz × 2×10⁻⁷ × ln({z.gmd * 1e3:.4g} / "
-                    f"{z.gmr * 1e3:.4g}){steel_x} = {_per_length(z.x_geometry)}")
+                    f"{z.gmr * 1e3:.4g}){steel_x} = {fq(z.x_geometry, 'ohm/m')}")
     else:
         result.step("DC (0 Hz): no skin or proximity effect and no reactance", "R_ac = R_dc; X = 0",
-                    f"= {_per_length(z.r_ac)}")
+                    f"= {fq(z.r_ac, 'ohm/m')}")
     sin_nec = math.sin(math.acos(POWER_FACTOR_NEC))
     result.step(f"Effective impedance at {POWER_FACTOR_NEC:g} power factor (NEC Chapter 9 "
                 "Table 9 note 2)", f"Z = R_ac cos θ + X sin θ, cos θ = {POWER_FACTOR_NEC:g}",
-                f"= {_per_length(z.r_ac)} × {POWER_FACTOR_NEC:g} + "
-                f"{_per_length(z.x)} × {sin_nec:.3g} = "
-                f"{_per_length(z_085)}")
+                f"= {fq(z.r_ac, 'ohm/m')} × {POWER_FACTOR_NEC:g} + "
+                f"{fq(z.x, 'ohm/m')} × {sin_nec:.3g} = "
+                f"{fq(z_085, 'ohm/m')}")
 
 
 def _checks(result, inputs, z, metric):
@@ -188,9 +183,9 @@ def _checks(result, inputs, z, metric):
         status = "pass" if method == "table" or abs(effect) <= TABLE9_Z_AGREEMENT else "warn"
         where = f", {z.table_note}" if z.table_note else ""
         result.check("table9_reactance", status,
-                     f"NEC Chapter 9 Table 9 lists XL = {_per_length(z.x_table9)} "
+                     f"NEC Chapter 9 Table 9 lists XL = {fq(z.x_table9, 'ohm/m')} "
                      f"(scaled to {frequency:g} Hz{where}); the geometry "
-                     f"({_geometry_text(inputs, z)}) gives {_per_length(z.x_geometry)} "
+                     f"({_geometry_text(inputs, z)}) gives {fq(z.x_geometry, 'ohm/m')} "
                      f"({z.x_geometry / z.x_table9 - 1:+.0%}). Table 9's basis is RHH conductors "
                      "in cradled configuration (its note 1); on that basis the geometry is about "
                      "20 % below every row. Effect on Z at "
@@ -268,14 +263,14 @@ def _view(inputs):
     if not metric:
         area_display += f" ({size.area_m2 / units.CIRCULAR_MIL_M2:.0f} cmil)"
     result.output("area", size.area_m2, area_display)
-    result.output("r_dc", z.r_dc, _per_length(z.r_dc))
-    result.output("r_ac", z.r_ac, _per_length(z.r_ac))
-    result.output("x", z.x, _per_length(z.x))
+    result.output("r_dc", z.r_dc, fq(z.r_dc, "ohm/m"))
+    result.output("r_ac", z.r_ac, fq(z.r_ac, "ohm/m"))
+    result.output("x", z.x, fq(z.x, "ohm/m"))
     if z.r_dc_table is not None:
-        result.output("r_dc_table", z.r_dc_table, _per_length(z.r_dc_table))
+        result.output("r_dc_table", z.r_dc_table, fq(z.r_dc_table, "ohm/m"))
     if z.r_ac_table9 is not None:
-        result.output("r_ac_table9", z.r_ac_table9, _per_length(z.r_ac_table9))
-    result.output("z_085", z_085, _per_length(z_085))
+        result.output("r_ac_table9", z.r_ac_table9, fq(z.r_ac_table9, "ohm/m"))
+    result.output("z_085", z_085, fq(z_085, "ohm/m"))
     _steps(result, inputs, z, z_085, area_display, metric)
     _checks(result, inputs, z, metric)
     _describe(result, inputs, z, metric)
