@@ -126,6 +126,7 @@ def on_post_page(output, page, config):
 def on_post_build(config):
     site_dir = Path(config.site_dir)
     _rebase_not_found(site_dir / "404.html")
+    slim.write_lean_search_index(site_dir / slim.SEARCH_INDEX_FILE)  # the search plugin's, made lean
     release_files.strip_sitemap_dates(site_dir)
     release_files.write_server_headers(site_dir)
     try:

@@ -9,6 +9,7 @@ import pytest
 
 from build import forms, hooks, not_found, package_calc, paths, slim
 from calc import units
+from calc.calculators import CALCULATORS
 
 
 def test_whitespace_collapses_outside_pre_and_scripts():
@@ -91,3 +92,58 @@ def test_the_not_found_page_links_from_the_root_it_finds():
 def test_a_changed_theme_page_stops_the_build():
     with pytest.raises(not_found.NotFoundPageError, match="changed shape"):
         not_found.rebase("<html><head></head></html>")
+
+
+FULL_INDEX = {
+    "config": {"lang": ["en"], "separator": r"[\s\-]+", "pipeline": ["stopWordFilter"],
+               "fields": {"title": {"boost": 1000.0}, "text": {"boost": 1.0}}},
+    "docs": [
+        {"location": "calculators/motor-current/", "title": "Motor current",
+         "text": "<p>How many amps does this motor draw? The code letter of the nameplate "
+                 "gives the locked-rotor kVA.</p>" + "<p>Locked-rotor kVA per hp, by code letter.</p>" * 20},
+        {"location": "calculators/motor-current/#notes", "title": "Notes",
+         "text": "<p>See the motor's own nameplate. " + "Its amps -&gt; the breaker; NEMA frames, code letter. " * 4 + "</p>"},
+        {"location": "reference/motors/", "title": "Motors", "text": "<p>Code letters.</p>"},
+    ],
+}
+
+
+def _page_words(index):
+    words = {}
+    for doc in index["docs"]:
+        text = " ".join(doc.get(field, "") for field in ("title", "text", slim.WORDS_FIELD))
+        words.setdefault(slim.page_of(doc["location"]), set()).update(
+            key for key, _ in slim.search_words(slim.plain_text(text)))
+    return words
+
+
+def test_the_lean_search_index_keeps_every_word_of_every_page_once():
+    lean = slim.lean_search_index(FULL_INDEX)
+    assert _page_words(lean) == _page_words(FULL_INDEX)
+    assert [d["location"] for d in lean["docs"]] == [d["location"] for d in FULL_INDEX["docs"]]
+    assert [d["title"] for d in lean["docs"]] == [d["title"] for d in FULL_INDEX["docs"]]
+    first, notes, _ = lean["docs"]
+    assert first["text"] == "How many amps does this motor draw?"  # the lead: first sentence
+    assert notes["text"] == "See the motor's own nameplate."
+    first_words, notes_words = first[slim.WORDS_FIELD].split(), notes[slim.WORDS_FIELD].split()
+    assert "gives" in first_words and "nameplate" not in first_words  # a lead of the page has it
+    assert "letter" in first_words and "letter" not in notes_words  # once a page
+    assert "amps" not in notes_words and "Amps" not in notes_words  # the first lead has it
+    assert "NEMA" in notes_words and "&gt" not in notes[slim.WORDS_FIELD]
+    assert lean["config"]["fields"][slim.WORDS_FIELD] == FULL_INDEX["config"]["fields"]["text"]
+    assert len(json.dumps(lean)) < 0.5 * len(json.dumps(FULL_INDEX))
+
+
+def test_a_lead_without_an_early_sentence_end_is_cut_at_a_word():
+    text = "word " * 100
+    cut = slim.lead(f"<p>{text}</p>")
+    assert cut.endswith(" …") and len(cut) <= slim.LEAD_CHARS + 2 and "  " not in cut
+    assert slim.lead("<p>Short <code>text</code>.</p>") == "Short text."
+
+
+def test_the_built_search_index_is_lean(built_site):
+    index = json.loads((built_site / slim.SEARCH_INDEX_FILE).read_text(encoding="utf-8"))
+    assert slim.WORDS_FIELD in index["config"]["fields"]
+    assert all(len(doc["text"]) <= slim.LEAD_CHARS + 2 and "<" not in doc["text"] for doc in index["docs"])
+    locations = {doc["location"] for doc in index["docs"]}
+    assert {f"calculators/{c.id}/" for c in CALCULATORS} <= locations
