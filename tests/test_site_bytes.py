@@ -4,10 +4,12 @@ of conductor sizes, and the "not found" page that finds the site's root."""
 import ast
 import json
 import re
+import struct
+import zlib
 
 import pytest
 
-from build import forms, hooks, not_found, package_calc, paths, slim
+from build import forms, hooks, make_icons, not_found, package_calc, paths, slim
 from calc import units
 from calc.calculators import CALCULATORS
 
@@ -147,3 +149,33 @@ def test_the_built_search_index_is_lean(built_site):
     assert all(len(doc["text"]) <= slim.LEAD_CHARS + 2 and "<" not in doc["text"] for doc in index["docs"])
     locations = {doc["location"] for doc in index["docs"]}
     assert {f"calculators/{c.id}/" for c in CALCULATORS} <= locations
+
+
+def _png(rows, filter_type):
+    """An RGBA PNG of `rows` (lists of 4-byte pixels), every row stored with `filter_type` 1 (Sub)."""
+    lines = b""
+    for row in rows:
+        flat = b"".join(row)
+        lines += bytes([filter_type]) + bytes((flat[x] - (flat[x - 4] if x >= 4 else 0)) & 0xFF
+                                              for x in range(len(flat)))
+    header = struct.pack(">IIBBBBB", len(rows[0]), len(rows), 8, 6, 0, 0, 0)
+    return (make_icons.PNG_SIGNATURE + make_icons._chunk(b"IHDR", header)
+            + make_icons._chunk(b"IDAT", zlib.compress(lines, 1)) + make_icons._chunk(b"IEND", b""))
+
+
+def test_icons_are_stored_again_with_the_same_pixels_and_fewer_bytes():
+    teal, clear = b"\x0d\x3b\x45\xff", b"\x00\x00\x00\x00"
+    rows = [[teal if (x - 16) ** 2 + (y - 16) ** 2 < 100 else clear for x in range(32)] for y in range(32)]
+    original = _png(rows, 1)
+    shrunk = make_icons.shrink_png(original)
+    assert len(shrunk) < len(original)
+    assert make_icons.png_pixels(shrunk) == make_icons.png_pixels(original)
+    assert make_icons.png_pixels(original)[1][16] == b"".join(rows[16])  # the decoder itself
+    with pytest.raises(ValueError, match="8-bit"):
+        make_icons.png_pixels(original.replace(b"\x08\x06", b"\x10\x06", 1))
+
+
+@pytest.mark.parametrize("name", ["favicon.png", "icon-192.png", "apple-touch-icon.png"])
+def test_the_committed_icons_are_stored_small(name):
+    data = (make_icons.ICONS / name).read_bytes()
+    assert make_icons.shrink_png(data) == data  # nothing left to gain: make_icons.py stored it
