@@ -166,3 +166,29 @@ def test_the_stored_files_name_their_generator():
         if data.get("kind", verification.KIND_SIMULATOR) == verification.KIND_SIMULATOR:
             assert data["script"] == verification.GENERATOR, path.name
             assert (verification.TESTS_DIR.parent / data["script"]).exists(), path.name
+
+
+def test_a_case_comparing_several_outputs_is_named_once_and_every_figure_stays():
+    check = next(c for c in STORED if c["calculator"] == "voltage-drop")
+    evaluated = verification.evaluate([check, dict(check), dict(check, title="other <case>")])
+    rows = verification._rows(evaluated)
+    table = verification.checks_table(rows)
+    assert table.count(f'<td rowspan="2">{check["title"]}</td>') == 1
+    assert table.count(check["title"]) == 1 and "other &lt;case&gt;" in table
+    assert table.count("<tr>") == 1 + len(rows)  # header and one row a check
+    for row in rows:
+        assert table.count(f"<td>{row[3]}</td>") >= 1 and f"<code>{row[1]}</code>" in table
+    # the figures' alignment is the stylesheet's, counted from a row's end (a spanned first cell)
+    css = (verification.TESTS_DIR.parent / "site_src/assets/css/fluxbook.css").read_text(encoding="utf-8")
+    assert f".{verification.TABLE_CLASS} :is(td, th):nth-last-child(n+3):nth-last-child(-n+5)" in css
+    assert len(verification.HEADER) - verification.HEADER.index("Reference") == 5
+
+
+def test_a_file_and_tolerance_every_source_shares_are_said_once():
+    checks = [c for c in verification.vector_checks() if c["calculator"] == "conductor"]
+    text = verification._sources([(c, None) for c in checks])
+    assert text.count(checks[0]["file"]) == 1 and text.count(checks[0]["why"]) == 1
+    assert all(c["source"].replace("|", "\\|") in text for c in checks)
+    mixed = [(checks[0], None), (dict(checks[0], why="another reason", source="elsewhere"), None)]
+    text = verification._sources(mixed)
+    assert "; tolerance: another reason" in text and text.count(checks[0]["file"]) == 1

@@ -8,6 +8,7 @@ A stored check is a record: {"calculator", "title", "inputs", "output", "referen
 here, never a stored figure. The simulators are not needed: their answers are read from files.
 """
 
+import html
 import json
 import math
 from pathlib import Path
@@ -155,18 +156,41 @@ def _cell(text):
 
 
 def _rows(evaluated):
+    """Each check's cells as plain text, in HEADER's order."""
     rows = []
     for check, outcome in evaluated:
         computed = not isinstance(outcome, StoredCheckError)
         unit = outcome.unit if computed else check.get("unit", "")
-        rows.append([_cell(check["title"]), f"`{check['output']}`",
+        rows.append([check["title"], check["output"],
                      f"{_number(float(check['reference']))} {unit}".strip(),
                      f"{_number(outcome.ours)} {unit}".strip() if computed else "—",
-                     _deviation(check, outcome), _cell(_tolerance(check)), _status(outcome)])
+                     _deviation(check, outcome), _tolerance(check), _status(outcome)])
     return rows
 
 
 HEADER = ["Check", "Output", "Reference", "Fluxbook now", "Deviation", "Tolerance", ""]
+# The page's largest part is these tables (some 640 rows), so they are written as compact HTML
+# rather than Markdown: a check comparing several outputs names its case once (rowspan), and
+# the figures' right alignment comes from the .fb-verify rule in fluxbook.css, not each cell.
+TABLE_CLASS = "fb-verify"
+
+
+def checks_table(rows):
+    """The rows of _rows as one HTML table; consecutive rows of one case share its cell."""
+    lines = ["<thead><tr>" + "".join(f"<th>{html.escape(h)}</th>" for h in HEADER) + "</tr></thead><tbody>"]
+    for i, row in enumerate(rows):
+        if i and row[0] == rows[i - 1][0]:
+            first = ""  # spanned by the case's first row
+        else:
+            span = 1
+            while i + span < len(rows) and rows[i + span][0] == row[0]:
+                span += 1
+            first = f'<td rowspan="{span}">' if span > 1 else "<td>"
+            first += html.escape(row[0]) + "</td>"
+        cells = [f"<code>{html.escape(row[1])}</code>", *map(html.escape, row[2:])]
+        lines.append(f"<tr>{first}" + "".join(f"<td>{cell}</td>" for cell in cells) + "</tr>")
+    # The theme wraps (and scrolls) a table without a class: the class goes on a div around it.
+    return f'<div class="{TABLE_CLASS}"><table>\n' + "\n".join(lines) + "\n</tbody></table></div>"
 
 
 def _worst(evaluated):
@@ -182,12 +206,23 @@ def _worst(evaluated):
 
 
 def _sources(evaluated):
+    """Markdown: the sources of one table's checks, each once. A file or a tolerance that every
+    check shares (a calculator's vector file, "the vector's own tolerance") is said once."""
+    checks = [check for check, _ in evaluated]
+    shared = {key: checks[0][key] for key in ("file", "why") if len({c[key] for c in checks}) == 1}
+    lead = "; ".join(part for part in (shared.get("file"), shared.get("why") and
+                                       f"tolerance: {shared['why']}") if part)
     seen = []
-    for check, _ in evaluated:
-        text = f"{check['source']} ({check['file']}); tolerance: {check['why']}"
+    for check in checks:
+        text = check["source"]
+        if "file" not in shared:
+            text += f" ({check['file']})"
+        if "why" not in shared:
+            text += f"; tolerance: {check['why']}"
         if text not in seen:
             seen.append(text)
-    return seen
+    heading = f"Sources and tolerances ({lead}):" if lead else "Sources and tolerances:"
+    return heading + "\n\n" + "\n".join(f"- {_cell(text)}" for text in seen)
 
 
 def verification_page(team_config):
@@ -211,9 +246,8 @@ def verification_page(team_config):
                               (KIND_SIMULATOR, "Simulator results")):
             if groups[kind]:
                 parts.append(f"### {heading}")
-                parts.append(markdown_table(HEADER, _rows(groups[kind]), "llrrrll"))
-                parts.append("Sources and tolerances:\n\n" + "\n".join(
-                    f"- {_cell(text)}" for text in _sources(groups[kind])))
+                parts.append(checks_table(_rows(groups[kind])))
+                parts.append(_sources(groups[kind]))
         sections.append("\n\n".join(parts))
     without = [c.title for c in api.REGISTRY.values()
                if not by_calculator[c.id][KIND_SIMULATOR]]
