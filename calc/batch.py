@@ -15,7 +15,6 @@ import functools
 import io
 import json
 import os
-from concurrent.futures import BrokenExecutor  # a process pool whose worker died raises it
 from typing import NamedTuple
 
 from calc import api, jobs
@@ -210,6 +209,8 @@ def run_rows(calculator_id, rows, region=None, processes=None, full=False, rende
     work = functools.partial(_check_chunk, calculator_id, region, full, render, display)
     here = functools.partial(check_rows, calculator_id, region=region, full=full, render=render,
                              display=display)
+    # Imported only with a pool: the browser's engine (no processes) never loads threading.
+    from concurrent.futures import BrokenExecutor  # a pool whose worker died raises it
     with pool:
         pending = collections.deque()
         broken = False
