@@ -82,6 +82,8 @@ def on_page_markdown(markdown, page, config, files):
     except embed.EmbedError as error:
         raise PluginError(str(error)) from None
     _state["blocks"][page.file.src_uri] = blocks
+    if blocks:  # a calculator page starts its engine from the head (site_src/overrides/main.html)
+        page.meta["fluxbook_engine"] = True
     return markdown
 
 

@@ -1,13 +1,14 @@
 """The engine's memory snapshot on the device (issue 12): a later visit restores from it.
 
-The first full boot takes a snapshot right after importing calc.api and stores it gzipped in
-Cache Storage ("fluxbook-engine-snapshot"), keyed by Pyodide's version and calc.zip's SHA-256.
-These tests read and plant entries there from the page, then check which start the calculator
-root reports (data-engine-start) and that it still computes.
+The first full boot takes a snapshot right after importing calc and stores it as it is in Cache
+Storage ("fluxbook-engine-snapshot"), with its SHA-256 and the Pyodide version that made it in
+headers, keyed by Pyodide's folder and calc.zip's SHA-256. These tests read and plant entries
+there from the page, then check which start the calculator root reports (data-engine-start) and
+that it still computes.
 """
 
 import base64
-import gzip
+import hashlib
 import struct
 import warnings
 
@@ -20,23 +21,27 @@ from tests.conftest import serving
 PAGE = "calculators/transformer-currents/"
 CACHE = "fluxbook-engine-snapshot"
 HEAP_COMPILED = 30 * 1024 * 1024  # Pyodide 314.0.7's wasm memory before it grows (issue 6254)
-SAVE_TIMEOUT_MS = 120000  # a cold boot, then about 1.3 s of gzip on an idle machine
+SAVE_TIMEOUT_MS = 120000  # a cold boot, then the snapshot's checksum and storing it
+CHECKSUM = "X-Snapshot-SHA256"
+SIZE = "X-Snapshot-Bytes"
+RUNTIME = "X-Snapshot-Pyodide"
 
 # Every entry URL of the snapshot cache.
 KEYS_JS = f"""async () => {{
   const cache = await caches.open("{CACHE}");
   return (await cache.keys()).map((request) => request.url);
 }}"""
-# Waits for a saved snapshot (an entry ending in .gz other than `except`); its URL and sizes.
+# Waits for a saved snapshot (an entry ending in .bin other than `except`); its URL, size and
+# the headers it was stored with.
 WAIT_SAVED_JS = f"""async ([except_, timeoutMs]) => {{
   const until = Date.now() + timeoutMs;
   while (Date.now() < until) {{
     const cache = await caches.open("{CACHE}");
-    const found = (await cache.keys()).find((r) => r.url.endsWith(".gz") && r.url !== except_);
+    const found = (await cache.keys()).find((r) => r.url.endsWith(".bin") && r.url !== except_);
     if (found) {{
       const response = await cache.match(found);
-      return {{ url: found.url, gzipped: (await response.clone().arrayBuffer()).byteLength,
-               raw: Number(response.headers.get("X-Snapshot-Bytes")) }};
+      return {{ url: found.url, size: (await response.clone().arrayBuffer()).byteLength,
+               headers: Object.fromEntries(response.headers.entries()) }};
     }}
     await new Promise((resolve) => setTimeout(resolve, 250));
   }}
@@ -52,11 +57,12 @@ READ_JS = f"""async (url) => {{
   }}
   return btoa(text);
 }}"""
-# Stores what `source` (a same-origin URL the test routes) answers under entry `url`.
-PLANT_JS = f"""async ([source, url]) => {{
+# Stores what `source` (a same-origin URL the test routes) answers under entry `url`, with
+# `headers`.
+PLANT_JS = f"""async ([source, url, headers]) => {{
   const body = await (await fetch(source)).blob();
   const cache = await caches.open("{CACHE}");
-  await cache.put(url, new Response(body, {{ headers: {{ "Content-Type": "application/gzip" }} }}));
+  await cache.put(url, new Response(body, {{ headers }}));
 }}"""
 # The engine module the page itself uses (same URL, same instance): its state.
 ENGINE_STATE_JS = """async () => {
@@ -64,7 +70,7 @@ ENGINE_STATE_JS = """async () => {
   const { engine } = await import(new URL("engine.js", script).href);
   return engine().state;
 }"""
-PLANTED = "__snapshot_test__/planted.gz"
+PLANTED = "__snapshot_test__/planted.bin"
 
 
 def new_context(browser):
@@ -83,11 +89,22 @@ def start_of(page):
     return page.get_attribute("[data-calculator]", "data-engine-start")
 
 
-def plant(context, page, base, url, body):
-    """Store body in the snapshot cache under url, from a page of the site."""
+def plant(context, page, base, url, body, headers):
+    """Store body in the snapshot cache under url with headers, from a page of the site."""
     context.route(base + PLANTED, lambda route: route.fulfill(
-        body=body, headers={"Content-Type": "application/gzip"}))
-    page.evaluate(PLANT_JS, [base + PLANTED, url])
+        body=body, headers={"Content-Type": "application/octet-stream"}))
+    page.evaluate(PLANT_JS, [base + PLANTED, url, headers])
+
+
+def stored_headers(saved, body=None, **change):
+    """The saved snapshot's headers; with body, its checksum and size are body's; change
+    replaces any (None: left out)."""
+    headers = {name: saved["headers"][name.lower()] for name in (CHECKSUM, SIZE, RUNTIME)}
+    if body is not None:
+        headers[CHECKSUM] = hashlib.sha256(body).hexdigest()
+        headers[SIZE] = str(len(body))
+    headers.update(change)
+    return {name: value for name, value in headers.items() if value is not None}
 
 
 @pytest.fixture(scope="module")
@@ -98,7 +115,7 @@ def site(built_site):
 
 @pytest.fixture(scope="module")
 def saved(browser, site):
-    """A first visit's snapshot: {"url", "gzipped", "raw", "bytes"} (bytes: the stored gzip)."""
+    """A first visit's snapshot: {"url", "size", "headers", "bytes"} (bytes: as stored)."""
     context = new_context(browser)
     try:
         page = context.new_page()
@@ -145,11 +162,13 @@ def test_the_full_calc_package_snapshot_fits_and_restores(saved, browser, site):
     grows the memory first. This test fails if a grown calc package's snapshot stops restoring,
     and says how close it is to the limit.
     """
-    raw = gzip.decompress(saved["bytes"])
-    assert len(raw) == saved["raw"]
+    raw = saved["bytes"]
+    assert len(raw) == saved["size"]
+    assert saved["headers"][CHECKSUM.lower()] == hashlib.sha256(raw).hexdigest()
+    assert saved["headers"][SIZE.lower()] == str(len(raw))
     heap = len(raw) - struct.unpack_from("<I", raw, 4)[0]  # the header's second word: its length
     print(f"engine snapshot: {len(raw):,} B, heap {heap:,} B = {heap / HEAP_COMPILED:.3f} x the "
-          f"compiled 30 MiB; {saved['gzipped']:,} B gzipped")
+          f"compiled 30 MiB")
     if heap > HEAP_COMPILED:
         warnings.warn(f"the engine snapshot's heap ({heap:,} B) is past Pyodide's compiled 30 MiB: "
                       "it restores only through calc-worker.js's memory growth (pyodide issue 6254)")
@@ -157,7 +176,7 @@ def test_the_full_calc_package_snapshot_fits_and_restores(saved, browser, site):
     try:
         page = context.new_page()
         page.goto(site)  # no calculator here: nothing boots yet
-        plant(context, page, site, saved["url"], saved["bytes"])
+        plant(context, page, site, saved["url"], saved["bytes"], stored_headers(saved))
         page.goto(site + PAGE)
         wait_done(page)
         assert start_of(page) == "snapshot"
@@ -166,28 +185,32 @@ def test_the_full_calc_package_snapshot_fits_and_restores(saved, browser, site):
         context.close()
 
 
-@pytest.mark.parametrize("damage", ["garbled", "not a snapshot", "truncated"])
+@pytest.mark.parametrize("damage", ["garbled", "not a snapshot", "truncated", "no checksum"])
 def test_a_corrupt_snapshot_is_deleted_and_the_page_still_computes(saved, browser, site, damage):
     good = saved["bytes"]
-    if damage == "garbled":  # bytes flipped in the middle: the gzip check fails
+    headers = stored_headers(saved)  # the good snapshot's checksum
+    if damage == "garbled":  # bytes flipped in the middle, which Pyodide would restore: the checksum fails
         middle = len(good) // 2
         body = good[:middle] + bytes(b ^ 0xFF for b in good[middle:middle + 4096]) + good[middle + 4096:]
-    elif damage == "not a snapshot":  # good gzip of the wrong bytes: Pyodide refuses the header
-        body = gzip.compress(b"Fluxbook test: not an engine snapshot. " * 50000)
-    else:
+    elif damage == "not a snapshot":  # the wrong bytes with their own checksum: Pyodide refuses them
+        body = b"Fluxbook test: not an engine snapshot. " * 50000
+        headers = stored_headers(saved, body)
+    elif damage == "truncated":  # shorter than its stored size
         body = good[: len(good) // 2]
+    else:  # good bytes nothing vouches for
+        body, headers = good, stored_headers(saved, **{CHECKSUM: None})
     context = new_context(browser)
     try:
         page = context.new_page()
         page.goto(site)
-        plant(context, page, site, saved["url"], body)
+        plant(context, page, site, saved["url"], body, headers)
         page.goto(site + PAGE)
         wait_done(page)
         assert start_of(page) == "normal"
         assert output(page, "secondary_a") == "208 A"  # computed by the full start
         keys = page.evaluate(KEYS_JS)
         assert saved["url"] not in keys  # the corrupt one is gone
-        assert saved["url"].removesuffix(".gz") + ".failed" in keys  # and not made again
+        assert saved["url"].removesuffix(".bin") + ".failed" in keys  # and not made again
         state = page.evaluate(ENGINE_STATE_JS)
         assert state["snapshot"]["state"] == "failed", state
         page.reload()  # the next visit starts in full, without trying it again
@@ -205,7 +228,7 @@ def test_a_snapshot_of_another_calc_zip_is_not_used_and_is_replaced(saved, brows
         page_sha = page.get_attribute('meta[name="fluxbook-calc-zip-sha256"]', "content")
         assert len(page_sha) == 64 and page_sha in saved["url"]
         other = saved["url"].replace(page_sha, "0" * 64)  # a good snapshot of another release
-        plant(context, page, site, other, saved["bytes"])
+        plant(context, page, site, other, saved["bytes"], stored_headers(saved))
         page.goto(site + PAGE)
         wait_done(page)
         assert start_of(page) == "normal"  # a working snapshot, but not of this calc.zip
@@ -217,11 +240,12 @@ def test_a_snapshot_of_another_calc_zip_is_not_used_and_is_replaced(saved, brows
 
 
 # A throwaway worker the test serves (routed, same origin): a snapshot of the engine whose heap
-# has grown past 30 MiB (20 MB of ballast), taken the way calc-worker.js takes it.
+# has grown past 30 MiB (20 MB of ballast), taken the way calc-worker.js takes it, except that
+# only calc.api is imported: the restore must also put calc's files back at once for the rest.
 BALLAST_WORKER = """
 self.onmessage = async ({ data: { indexURL, calcZipURL } }) => {
   try {
-    const { loadPyodide } = await import(new URL("pyodide.mjs", indexURL).href);
+    const { loadPyodide, version } = await import(new URL("pyodide.mjs", indexURL).href);
     const pyodide = await loadPyodide({ indexURL, fullStdLib: false, _makeSnapshot: true });
     const zip = await (await fetch(calcZipURL)).arrayBuffer();
     pyodide.unpackArchive(zip, "zip", { extractDir: "/home/pyodide/fluxbook" });
@@ -229,8 +253,9 @@ self.onmessage = async ({ data: { indexURL, calcZipURL } }) => {
 import builtins\\nbuiltins._test_ballast = [bytes(1000) + str(i).encode() for i in range(20000)]
 import gc\\ngc.collect()`);
     const raw = pyodide.makeMemorySnapshot();
-    const gz = new Response(new Blob([raw]).stream().pipeThrough(new CompressionStream("gzip")));
-    self.postMessage({ raw: raw.length, gz: new Uint8Array(await gz.arrayBuffer()) });
+    const digest = new Uint8Array(await crypto.subtle.digest("SHA-256", raw));
+    const sha = Array.from(digest, (byte) => byte.toString(16).padStart(2, "0")).join("");
+    self.postMessage({ raw, sha, version });
   } catch (error) { self.postMessage({ error: String(error && error.stack || error) }); }
 };
 """
@@ -246,8 +271,10 @@ MAKE_BALLAST_JS = """async ([workerURL, url]) => {
   });
   worker.terminate();
   if (made.error) return made;
-  await (await caches.open("fluxbook-engine-snapshot")).put(url, new Response(made.gz));
-  return { raw: made.raw };
+  await (await caches.open("fluxbook-engine-snapshot")).put(url, new Response(made.raw, { headers: {
+    "X-Snapshot-SHA256": made.sha, "X-Snapshot-Bytes": String(made.raw.length),
+    "X-Snapshot-Pyodide": made.version } }));
+  return { raw: made.raw.length };
 }"""
 
 
@@ -265,7 +292,8 @@ def test_a_snapshot_whose_heap_grew_past_30_mib_restores(saved, browser, site):
         assert made["raw"] > HEAP_COMPILED + 16 * 1024 * 1024  # well past the compiled heap
         page.goto(site + PAGE)
         wait_done(page)
-        assert start_of(page) == "snapshot"  # restored, not fallen back to a full start
+        # restored, not fallen back to a full start
+        assert start_of(page) == "snapshot", page.evaluate(ENGINE_STATE_JS)
         page.fill('[name="kva"]', "150 kVA")
         expect(page.locator('[data-output="secondary_a"]')).to_have_text("416 A")  # computed
     finally:
@@ -287,7 +315,7 @@ def test_a_restore_that_hangs_is_given_up_and_the_page_still_computes(saved, bro
     try:
         page = context.new_page()
         page.goto(site)
-        plant(context, page, site, saved["url"], saved["bytes"])
+        plant(context, page, site, saved["url"], saved["bytes"], stored_headers(saved))
         context.route("**/pyodide.asm.wasm", wasm)
         page.goto(site + PAGE)
         page.wait_for_selector('[data-calculator][data-state="done"]', timeout=3 * ENGINE_TIMEOUT_MS)
@@ -295,8 +323,50 @@ def test_a_restore_that_hangs_is_given_up_and_the_page_still_computes(saved, bro
         assert start_of(page) == "normal"
         assert output(page, "secondary_a") == "208 A"  # computed by the full start
         keys = page.evaluate(KEYS_JS)
-        assert saved["url"] not in keys and saved["url"].removesuffix(".gz") + ".failed" in keys
+        assert saved["url"] not in keys and saved["url"].removesuffix(".bin") + ".failed" in keys
         state = page.evaluate(ENGINE_STATE_JS)
         assert state["snapshot"]["state"] == "failed", state
+    finally:
+        context.close()
+
+
+def test_a_snapshot_of_another_pyodide_is_not_used_and_is_replaced(saved, browser, site):
+    """The key names Pyodide's folder; the version that made the snapshot is checked as well."""
+    context = new_context(browser)
+    try:
+        page = context.new_page()
+        page.goto(site)
+        plant(context, page, site, saved["url"], saved["bytes"],
+              stored_headers(saved, **{RUNTIME: "0.0.1"}))
+        page.goto(site + PAGE)
+        wait_done(page)
+        assert start_of(page) == "normal"  # a good heap, but of another runtime
+        mine = wait_saved(page)
+        assert mine["url"] == saved["url"]
+        assert mine["headers"][RUNTIME.lower()] == saved["headers"][RUNTIME.lower()] != "0.0.1"
+    finally:
+        context.close()
+
+
+# The engine the page uses: was it started from the head (engine-start.js) and adopted?
+STARTED_EARLY_JS = ENGINE_STATE_JS.replace("return engine().state;",
+                                           "return Boolean(engine().startedEarly);")
+
+
+def test_a_calculator_page_starts_its_engine_from_the_head(browser, site):
+    """engine-start.js boots the worker before the page's modules run; engine.js adopts it with
+    every message it sent meanwhile, so the page hears it is ready and computes."""
+    context = new_context(browser)
+    try:
+        page = context.new_page()
+        page.goto(site)  # the home page has no calculator: nothing boots from its head
+        assert page.locator('script[src$="engine-start.js"]').count() == 0
+        assert page.evaluate("() => window.fluxbookEngineStart === undefined")
+        page.goto(site + PAGE)
+        assert page.locator('script[src$="engine-start.js"]').count() == 1
+        wait_done(page)
+        assert page.evaluate(STARTED_EARLY_JS) is True
+        assert output(page, "secondary_a") == "208 A"
+        assert "Calculator engine ready" in page.text_content(".fb-engine__text")
     finally:
         context.close()

@@ -2,16 +2,23 @@
 // calc.api and answers run requests with calc.api.run_json (JSON text in, JSON text out).
 //
 // Quick start: the first full boot on a device takes a memory snapshot of the engine right after
-// importing calc.api (before any calculation) and, once the first result is out, stores it gzipped
-// in Cache Storage, keyed by Pyodide's version and calc.zip's SHA-256. A later visit restores from
-// it instead of booting. Any failure to restore deletes it, marks this release's snapshot as
-// failed (none is made again until a new release) and boots in full.
+// importing calc (before any calculation) and, once the first result is out, stores it in Cache
+// Storage as it is, with its SHA-256, keyed by Pyodide's folder and calc.zip's SHA-256. A later
+// visit restores from it instead of booting. It is kept uncompressed: the browser reads it off
+// this thread while Pyodide's scripts load and its wasm compiles, where un-gzipping 31.5 MB took
+// about 0.2 s of this thread first; a phone has the room. The checksum, checked while Pyodide
+// restores, stands in for gzip's check of the bytes. Any failure to restore deletes it, marks
+// this release's snapshot as failed (none is made again until a new release) and boots in full.
 import * as messages from "./messages.js";
 
 const CALC_DIR = "/home/pyodide/fluxbook";
 const SNAPSHOT_CACHE = "fluxbook-engine-snapshot";
 const SNAPSHOT_IDLE_MS = 3000; // no calculation this long after ready: save the snapshot anyway
-const COMPRESS_CHUNK_BYTES = 256 * 1024; // compression yields between chunks, so runs go first
+const CHECKSUM_HEADER = "X-Snapshot-SHA256";
+const SIZE_HEADER = "X-Snapshot-Bytes";
+const RUNTIME_HEADER = "X-Snapshot-Pyodide"; // the version of Pyodide that made it
+// Imported before the snapshot is taken, so a restored engine has nothing left to import.
+const ENGINE_MODULES = ["calc.api", "calc.jobs", "calc.batch"];
 const RESTORE_BUSY_MS = 30000; // a restore marked as begun this recently may be another tab's
 
 let runJson = null;
@@ -27,11 +34,18 @@ booted.catch(() => {}); // each run reports the failure itself
 let fatal = null; // set when the runtime can no longer be used
 let pendingSnapshot = null; // {bytes, store}: taken at boot, saved after the first result
 let saveTimer = null;
+let pendingFiles = null; // after a restore: puts calc's files back, once, after the first result
 
 // Offline fallback (Firefox has been reported to let a worker's fetch bypass the service
 // worker when offline): if the network fails, answer from the precache in Cache Storage.
 const networkFetch = self.fetch.bind(self);
 self.fetch = async (request, init) => {
+  // The runtime's wasm, when it is compiled already (below): Pyodide's own request for it is
+  // answered with nothing, as its instantiateStreaming is given the compiled module instead.
+  if (compiled && String(request && request.url ? request.url : request) === compiledURL &&
+      (await compiled)) {
+    return new Response(new Uint8Array(0), { headers: { "Content-Type": "application/wasm" } });
+  }
   try {
     return await networkFetch(request, init);
   } catch (error) {
@@ -46,12 +60,32 @@ self.fetch = async (request, init) => {
 // 6254: prepareSnapshot sets INITIAL_MEMORY, which the module never reads). While a restore is
 // under way, grow the new instance's memory to the snapshot's heap before Emscripten makes its
 // views of it. Only the instance whose exported memory is smaller than wanted is touched.
+//
+// Before a restore, the runtime's wasm is compiled as soon as the snapshot is found
+// (`compiled`), in parallel with reading it: Pyodide itself compiles only once it holds the
+// snapshot's bytes. Its instantiateStreaming is then given the compiled module.
+//
+// Pyodide waits for the snapshot's bytes before it builds its module (about 0.1 s of script), so
+// it is handed an array of the stored size at once and the bytes are copied in when read;
+// instantiation waits for that (`snapshotFilled`), and Pyodide reads the array only after it.
 let heapWanted = 0;
+let snapshotFilled = null;
+let compiled = null; // Promise of pyodide.asm.wasm's WebAssembly.Module, or of null
+let compiledURL = "";
+const instantiateModule = self.WebAssembly && WebAssembly.instantiate;
 for (const name of ["instantiateStreaming", "instantiate"]) {
   const original = self.WebAssembly && WebAssembly[name];
   if (typeof original !== "function") continue;
   WebAssembly[name] = async function (...args) {
-    const result = await original.apply(this, args);
+    if (snapshotFilled) await snapshotFilled; // a failed read fails this; restore() says why
+    const module = name === "instantiateStreaming" && compiled ? await compiled : null;
+    let result;
+    if (module) {
+      Promise.resolve(args[0]).then((response) => response.body && response.body.cancel(), () => {});
+      result = { module, instance: await instantiateModule.call(WebAssembly, module, args[1]) };
+    } else {
+      result = await original.apply(this, args);
+    }
     const instance = result instanceof WebAssembly.Instance ? result : result && result.instance;
     const memory = instance && instance.exports && instance.exports.memory;
     if (heapWanted && memory instanceof WebAssembly.Memory && memory.buffer.byteLength < heapWanted) {
@@ -62,20 +96,22 @@ for (const name of ["instantiateStreaming", "instantiate"]) {
 }
 
 // The snapshot on this device for one release, in Cache Storage under URLs of this copy of the
-// site (never fetched): <key>.gz the gzipped snapshot, <key>.failed "a restore of it failed",
+// site (never fetched): <key>.bin the snapshot, <key>.failed "a restore of it failed",
 // <key>.restoring "a restore began at <time>" (left behind if the tab hung or crashed in it).
+// The key is known before Pyodide's loader is: the runtime's folder carries its version
+// (build/paths.py), and the version that made the snapshot is checked once the loader is in.
 class SnapshotStore {
-  static open({ calcZipURL, calcSha256, snapshot }, pyodideVersion) {
-    const supported = self.caches && typeof CompressionStream === "function" &&
-      typeof DecompressionStream === "function";
+  static open({ indexURL, calcZipURL, calcSha256, snapshot }) {
+    const supported = self.caches && self.crypto && self.crypto.subtle;
     if (!calcSha256 || snapshot === "off" || !supported) return null;
+    const runtime = new URL(indexURL).pathname.split("/").filter(Boolean).pop() || "pyodide";
     return new SnapshotStore(new URL("engine-snapshot/", calcZipURL).href,
-      `pyodide-${pyodideVersion}-calc-${calcSha256}`);
+      `${runtime}-calc-${calcSha256}`);
   }
 
   constructor(prefix, key) {
     this.prefix = prefix;
-    this.url = `${prefix}${key}.gz`;
+    this.url = `${prefix}${key}.bin`;
     this.failedURL = `${prefix}${key}.failed`;
     this.restoringURL = `${prefix}${key}.restoring`;
     this.opened = caches.open(SNAPSHOT_CACHE);
@@ -108,6 +144,11 @@ class SnapshotStore {
     await (await this.opened).delete(this.restoringURL);
   }
 
+  // Made by another Pyodide under the same folder name: not used, and a new one may be made.
+  async discard() {
+    await (await this.opened).delete(this.url);
+  }
+
   async markFailed(reason) {
     const cache = await this.opened;
     await cache.delete(this.url);
@@ -115,10 +156,12 @@ class SnapshotStore {
     await cache.delete(this.restoringURL);
   }
 
-  async save(gzipped, rawBytes) {
+  async save(bytes, pyodideVersion) {
+    const checksum = await sha256(bytes);
     const cache = await this.opened;
-    await cache.put(this.url, new Response(gzipped, { headers: {
-      "Content-Type": "application/gzip", "X-Snapshot-Bytes": String(rawBytes) } }));
+    await cache.put(this.url, new Response(bytes, { headers: {
+      "Content-Type": "application/octet-stream", [CHECKSUM_HEADER]: checksum,
+      [SIZE_HEADER]: String(bytes.length), [RUNTIME_HEADER]: pyodideVersion } }));
   }
 
   // Entries of other releases of this copy of the site go as soon as this one boots.
@@ -134,15 +177,18 @@ class SnapshotStore {
 async function start(options) {
   const { indexURL, calcZipURL } = options;
   self.postMessage(messages.stage("runtime"));
-  const { loadPyodide, version: pyodideVersion } =
-    await import(new URL("pyodide.mjs", indexURL).href);
+  // All at once: the loader, the runtime's JavaScript (loadPyodide imports the same module
+  // later and finds it loaded) and its wasm, while the snapshot is looked up and read.
+  const loader = import(new URL("pyodide.mjs", indexURL).href);
+  const runtimeScript = import(new URL("pyodide.asm.mjs", indexURL).href);
+  runtimeScript.catch(() => {}); // loadPyodide imports it again and reports a failure
   const calcZip = fetchCalcZip(calcZipURL);
   calcZip.catch(() => {}); // awaited below; a failure there is reported there
 
   let store = null;
   let plan = { saved: null, mayMake: false };
   try {
-    store = SnapshotStore.open(options, pyodideVersion);
+    store = SnapshotStore.open(options);
     if (store && options.snapshot === "discard") {
       await store.markFailed("a restore from it did not finish in time");
       self.postMessage(messages.snapshot("failed", "a restore from it did not finish in time"));
@@ -155,12 +201,23 @@ async function start(options) {
     self.postMessage(messages.snapshot("unavailable", describe(error)));
   }
   if (store) store.pruneOthers().catch(() => {});
+  // Read while the loader and the runtime load, and the wasm compiles.
+  const reading = plan.saved ? plan.saved.arrayBuffer() : null;
+  if (reading) reading.catch(() => {}); // restore() reports a failure
+  if (reading) compiled = compileRuntime(indexURL);
 
+  const { loadPyodide, version: pyodideVersion } = await loader;
+  if (plan.saved && plan.saved.headers.get(RUNTIME_HEADER) !== pyodideVersion) {
+    await store.discard().catch(() => {});
+    plan = { saved: null, mayMake: true };
+  }
   if (plan.saved) {
     self.postMessage(messages.stage("restore"));
     try {
-      const pyodide = await restore(loadPyodide, indexURL, plan.saved, store, calcZip);
-      return ready(pyodide, "snapshot");
+      const pyodide = await restore(loadPyodide, indexURL, plan.saved, reading, store, calcZip);
+      ready(pyodide, "snapshot");
+      putFilesBack(SNAPSHOT_IDLE_MS);
+      return;
     } catch (error) {
       const reason = describe(error);
       console.warn(`Fluxbook: the engine snapshot could not be restored (${reason}); starting in full.`);
@@ -175,18 +232,31 @@ async function start(options) {
   self.postMessage(messages.stage("package"));
   pyodide.unpackArchive(await calcZip, "zip", { extractDir: CALC_DIR });
   self.postMessage(messages.stage("import"));
-  pyodide.runPython(`import sys\nif ${JSON.stringify(CALC_DIR)} not in sys.path: sys.path.insert(0, ${JSON.stringify(CALC_DIR)})\nimport calc.api`);
+  pyodide.runPython(`import sys\nif ${JSON.stringify(CALC_DIR)} not in sys.path: sys.path.insert(0, ${JSON.stringify(CALC_DIR)})\nimport ${ENGINE_MODULES.join(", ")}`);
   if (makeSnapshot) {
     // Before any calculation and before JavaScript holds any Python object: the smallest heap.
     try {
       pyodide.runPython("import gc\ngc.collect()");
-      pendingSnapshot = { bytes: pyodide.makeMemorySnapshot(), store };
+      pendingSnapshot = { bytes: pyodide.makeMemorySnapshot(), store, pyodideVersion };
     } catch (error) {
       self.postMessage(messages.snapshot("unavailable", describe(error)));
     }
   }
   ready(pyodide, "normal");
   scheduleSave(SNAPSHOT_IDLE_MS);
+}
+
+// Pyodide's wasm, compiled now; null where this browser cannot (Pyodide then compiles it itself).
+async function compileRuntime(indexURL) {
+  if (typeof WebAssembly.compileStreaming !== "function") return null;
+  const url = new URL("pyodide.asm.wasm", indexURL).href;
+  compiledURL = url;
+  try {
+    return await WebAssembly.compileStreaming(networkFetch(url, { credentials: "same-origin" }));
+  } catch (error) {
+    console.warn(`Fluxbook: compiling the runtime ahead failed (${describe(error)}); Pyodide will.`);
+    return null;
+  }
 }
 
 async function fetchCalcZip(url) {
@@ -203,49 +273,70 @@ function ready(pyodide, start) {
   self.postMessage(messages.stage("ready", version, start));
 }
 
-async function restore(loadPyodide, indexURL, saved, store, calcZip) {
+// saved: the stored snapshot's entry; reading: its bytes (a promise of an ArrayBuffer).
+async function restore(loadPyodide, indexURL, saved, reading, store, calcZip) {
+  const expected = saved.headers.get(CHECKSUM_HEADER);
+  const size = Number(saved.headers.get(SIZE_HEADER));
+  if (!expected || !Number.isSafeInteger(size) || size < 8) {
+    throw new Error("the stored snapshot does not give its size and SHA-256");
+  }
   const began = store.beginRestore().catch(() => {});
-  const bytes = gunzip(saved).then((snapshot) => {
+  const snapshot = new Uint8Array(size);
+  const filled = reading.then((buffer) => {
+    if (buffer.byteLength !== size) {
+      throw new Error(`the stored snapshot is ${buffer.byteLength} bytes long, not ${size}`);
+    }
+    snapshot.set(new Uint8Array(buffer));
     // The header's second word is its own length; the rest is the wasm heap.
-    heapWanted = snapshot.length - new DataView(snapshot.buffer, snapshot.byteOffset).getUint32(4, true);
-    return snapshot;
+    heapWanted = size - new DataView(buffer).getUint32(4, true);
   });
-  bytes.catch(() => {}); // loadPyodide awaits it and reports the failure
+  // Checked while Pyodide restores (the digest runs off this thread); a damaged copy is caught
+  // before the engine answers anything.
+  const intact = filled.then(() => sha256(snapshot)).then((actual) => {
+    if (actual !== expected) throw new Error("the stored snapshot is damaged (its SHA-256 does not match)");
+  });
+  intact.catch(() => {}); // awaited below
+  // A failed read ends the restore at once (Pyodide, whose instantiation it fails, would wait).
+  const readFailed = filled.then(() => new Promise(() => {}));
+  snapshotFilled = filled;
   let pyodide;
   try {
-    pyodide = await loadPyodide({ indexURL, fullStdLib: false, _loadSnapshot: bytes });
+    pyodide = await Promise.race([
+      loadPyodide({ indexURL, fullStdLib: false, _loadSnapshot: snapshot }), readFailed]);
   } finally {
     heapWanted = 0;
+    snapshotFilled = null;
   }
+  await intact;
   // The snapshot fixed the random state at the moment it was taken: draw a new seed.
   pyodide.runPython("import random\nrandom.seed()");
-  // The file system is not in the snapshot. Imported modules run without their files, but a
-  // lazy import or a traceback's source lines need them: put calc's files back.
-  try {
-    pyodide.unpackArchive(await calcZip, "zip", { extractDir: CALC_DIR });
-  } catch (error) {
-    console.warn(`Fluxbook: calc.zip could not be unpacked after the restore (${describe(error)}).`);
-  }
   pyodide.runPython("import calc.api"); // already imported: fails only on a broken restore
+  // The file system is not in the snapshot. Every engine module was imported before it was
+  // taken and runs without its file, but a traceback's source lines need them: calc's files go
+  // back after the first result (or a quiet spell), off the path to it. A snapshot without one
+  // of the modules (made by another version of this worker) needs them now.
+  const unpack = async () => {
+    try {
+      pyodide.unpackArchive(await calcZip, "zip", { extractDir: CALC_DIR });
+    } catch (error) {
+      console.warn(`Fluxbook: calc.zip could not be unpacked after the restore (${describe(error)}).`);
+    }
+  };
+  const complete = pyodide.runPython(
+    `import sys\nall(name in sys.modules for name in ${JSON.stringify(ENGINE_MODULES)})`);
+  if (complete) pendingFiles = unpack;
+  else await unpack();
   began.then(() => store.endRestore()).catch(() => {});
   return pyodide;
 }
 
-async function gunzip(response) {
-  const stream = response.body.pipeThrough(new DecompressionStream("gzip"));
-  return new Uint8Array(await new Response(stream).arrayBuffer());
+function putFilesBack(delay) {
+  if (pendingFiles) setTimeout(() => { const put = pendingFiles; pendingFiles = null; if (put) put(); }, delay);
 }
 
-async function gzip(bytes) {
-  const stream = new CompressionStream("gzip");
-  const writer = stream.writable.getWriter();
-  const compressed = new Response(stream.readable).blob();
-  for (let at = 0; at < bytes.length; at += COMPRESS_CHUNK_BYTES) {
-    await writer.write(bytes.subarray(at, at + COMPRESS_CHUNK_BYTES));
-    await new Promise((resolve) => setTimeout(resolve, 0)); // let a waiting run go first
-  }
-  await writer.close();
-  return compressed;
+async function sha256(bytes) {
+  const digest = new Uint8Array(await crypto.subtle.digest("SHA-256", bytes));
+  return Array.from(digest, (byte) => byte.toString(16).padStart(2, "0")).join("");
 }
 
 // The snapshot is saved after the first result (or after a quiet spell), never before a result.
@@ -261,11 +352,9 @@ async function saveSnapshot() {
   if (!taken) return;
   try {
     const began = performance.now();
-    const gzipped = await gzip(taken.bytes);
-    await taken.store.save(gzipped, taken.bytes.length);
-    const mb = (bytes) => `${(bytes / 1e6).toFixed(1)} MB`;
-    self.postMessage(messages.snapshot("saved", `${mb(taken.bytes.length)}, ${mb(gzipped.size)} ` +
-      `gzipped, in ${Math.round(performance.now() - began)} ms`));
+    await taken.store.save(taken.bytes, taken.pyodideVersion);
+    self.postMessage(messages.snapshot("saved", `${(taken.bytes.length / 1e6).toFixed(1)} MB, ` +
+      `in ${Math.round(performance.now() - began)} ms`));
   } catch (error) { // quota exceeded, storage cleared meanwhile: a full start next time
     self.postMessage(messages.snapshot("unavailable", describe(error)));
   }
@@ -296,6 +385,7 @@ self.onmessage = async (event) => {
           message.display === "na" || message.display === "iec" ? message.display : undefined);
     self.postMessage(messages.reply(message.id, JSON.parse(text)));
     scheduleSave(0);
+    putFilesBack(0);
   } catch (error) {
     self.postMessage(messages.failure(message.id, error));
     if (!fatal && isFatal(error)) {

@@ -32,14 +32,35 @@ class Engine {
       BOOT_TIMEOUT_MS);
     this.clearBootTimer = () => clearTimeout(timer);
     this.restoreTimer = null;
-    this.spawn("use");
+    // Started from the page's head (engine-start.js): take it over with what it has said so far.
+    const early = window.fluxbookEngineStart;
+    window.fluxbookEngineStart = null;
+    if (early && early.worker) this.adopt(early);
+    else this.spawn("use");
   }
 
   // Start a worker and boot it; snapshot: "use", or "discard" after a restore that hung.
   spawn(snapshot) {
     const worker = new Worker(new URL("./calc-worker.js", import.meta.url), { type: "module" });
+    this.listen(worker);
+    worker.postMessage(messages.boot(this.indexURL, this.calcZipURL,
+      { calcSha256: this.calcSha256, snapshot }));
+  }
+
+  // A worker booted before this module ran: listen to it, then hear the events it kept, in order
+  // (nothing is dispatched in between: this runs in one task).
+  adopt(early) {
+    const handlers = this.listen(early.worker);
+    early.release();
+    for (const event of early.events) handlers[event.type](event);
+    this.startedEarly = true;
+  }
+
+  // The worker's messages and errors go to this engine; returns the handlers by event type.
+  listen(worker) {
     this.worker = worker;
-    worker.addEventListener("message", (event) => {
+    const handlers = {};
+    handlers.message = (event) => {
       if (worker !== this.worker) return; // a worker given up on
       const message = event.data;
       if (message.type === "stage") this.onStageMessage(message);
@@ -52,16 +73,16 @@ class Engine {
         if (message.error) waiter.reject(message.error);
         else waiter.resolve(message.result);
       }
-    });
+    };
     // An uncaught error in the worker, before or after it was ready, ends it: say so.
-    worker.addEventListener("error", (event) => {
+    handlers.error = (event) => {
       if (worker === this.worker) this.fail(event.message || "the worker stopped with an error");
-    });
-    worker.addEventListener("messageerror", () => {
+    };
+    handlers.messageerror = () => {
       if (worker === this.worker) this.fail("the worker sent a message the page could not read");
-    });
-    worker.postMessage(messages.boot(this.indexURL, this.calcZipURL,
-      { calcSha256: this.calcSha256, snapshot }));
+    };
+    for (const [type, handler] of Object.entries(handlers)) worker.addEventListener(type, handler);
+    return handlers;
   }
 
   onStageMessage(message) {
