@@ -14,6 +14,7 @@ from mkdocs.structure.files import File  # noqa: E402
 from mkdocs.utils import get_relative_url  # noqa: E402
 
 from build import embed, forms, home, not_found, package_calc, paths, reference, release_files, service_worker, slim, team  # noqa: E402,E501
+from build import packed as packed_files  # noqa: E402
 from calc import __version__  # noqa: E402
 
 CALCULATOR_LIST_MARKER = "<!-- fluxbook:calculator-list -->"
@@ -131,8 +132,9 @@ def on_post_build(config):
     slim.write_lean_search_index(site_dir / slim.SEARCH_INDEX_FILE)  # the search plugin's, made lean
     release_files.strip_sitemap_dates(site_dir)
     release_files.write_server_headers(site_dir)
+    packed = packed_files.pack(site_dir)  # after every file it packs is written
     try:
-        precache = service_worker.generate(site_dir)  # last: every other file is written
+        precache = service_worker.generate(site_dir, packed)  # last: every other file is written
     except service_worker.ServiceWorkerError as error:
         raise PluginError(str(error)) from None
     shipped = release_files.write_checksums(site_dir)

@@ -39,6 +39,8 @@ SERVER_HEADERS_FILE = "server-headers.txt"  # the headers a host should send (CS
 CHECKSUMS_FILE = "SHA256SUMS"  # SHA-256 of every shipped file, for release checks
 SERVICE_WORKER_FILE = "sw.js"
 SERVICE_WORKER_SITEMAP = "assets/js/sw-sitemap.js"  # imported by sw.js: sitemap for any host
+SERVICE_WORKER_UNPACK = "assets/js/sw-unpack.js"  # imported by sw.js: serves packed files
+PACKED_LIST_SITE_PATH = "assets/js/sw-packed-list.js"  # written by build/packed.py
 SITE_URL_PLACEHOLDER = "https://fluxbook.invalid/"  # = site_url in mkdocs.yml
 SERVICE_WORKER_SCRIPT = ROOT / "build" / "service_worker.mjs"
 

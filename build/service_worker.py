@@ -29,17 +29,20 @@ def workbox_options(site_dir):
         "sourcemap": False,
         "cacheId": "fluxbook",
         "directoryIndex": "index.html",
-        "importScripts": [paths.SERVICE_WORKER_SITEMAP],  # before Workbox's own handlers
+        # Before Workbox's own handlers: the packed files' list and their server, the sitemap.
+        "importScripts": [paths.PACKED_LIST_SITE_PATH, paths.SERVICE_WORKER_UNPACK,
+                          paths.SERVICE_WORKER_SITEMAP],
     }
 
 
-def generate(site_dir):
-    """Write sw.js into site_dir; return {"count", "size"} of the precache."""
+def generate(site_dir, packed=()):
+    """Write sw.js into site_dir; return {"count", "size"} of the precache. `packed`: site paths
+    precached as their gzipped twins instead (build/packed.py)."""
     node = shutil.which("node")
     if node is None:
         raise ServiceWorkerError("node is not installed; run `npm ci` after installing Node.js 20+")
     with tempfile.NamedTemporaryFile("w", suffix=".json", delete=False) as handle:
-        json.dump(workbox_options(site_dir), handle)
+        json.dump({"options": workbox_options(site_dir), "packed": sorted(packed)}, handle)
         config_path = handle.name
     try:
         completed = subprocess.run(

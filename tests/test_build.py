@@ -1,13 +1,15 @@
 """The build pipeline: team settings, the embedding block, forms, the zip, the precache, the headers."""
 
+import gzip
 import json
 import re
 import zipfile
 from io import BytesIO
+from pathlib import Path
 
 import pytest
 
-from build import embed, forms, package_calc, paths, release_files, team
+from build import embed, forms, package_calc, packed, paths, release_files, team
 from calc import api
 
 ROOT = paths.ROOT
@@ -150,8 +152,17 @@ def test_pyodide_pin_matches_package_files():
 
 
 def _precache(site):
+    """The site paths available offline: each URL in sw.js's manifest, and each packed file
+    whose gzipped twin is there (build/packed.py; sw-unpack.js serves it)."""
     text = (site / paths.SERVICE_WORKER_FILE).read_text(encoding="utf-8")
-    return set(re.findall(r'url:"([^"]+)"', text))
+    urls = set(re.findall(r'url:"([^"]+)"', text))
+    return urls | {path for path in _packed(site) if path + packed.SUFFIX in urls}
+
+
+def _packed(site):
+    """{site path: Content-Type} from the list sw.js imports."""
+    text = (site / paths.PACKED_LIST_SITE_PATH).read_text(encoding="utf-8")
+    return json.loads(re.search(r"self\.FLUXBOOK_PACKED = (\{.*\});", text, re.DOTALL).group(1))
 
 
 def test_precache_holds_every_file_the_site_needs(built_site):
@@ -272,6 +283,41 @@ def test_the_placeholder_site_url_is_the_same_everywhere(built_site):
     script = (ROOT / "site_src" / paths.SERVICE_WORKER_SITEMAP).read_text(encoding="utf-8")
     assert f"site_url: {paths.SITE_URL_PLACEHOLDER}" in config
     assert f'"{paths.SITE_URL_PLACEHOLDER}"' in script
-    assert f'importScripts("{paths.SERVICE_WORKER_SITEMAP}")' in (built_site / "sw.js").read_text(encoding="utf-8")
+    imported = (f'importScripts("{paths.PACKED_LIST_SITE_PATH}","{paths.SERVICE_WORKER_UNPACK}",'
+                f'"{paths.SERVICE_WORKER_SITEMAP}")')  # before Workbox's handlers, in this order
+    assert imported in (built_site / "sw.js").read_text(encoding="utf-8")
     for page in built_site.rglob("*.html"):
         assert paths.SITE_URL_PLACEHOLDER not in page.read_text(encoding="utf-8"), page
+
+
+def test_the_device_keeps_our_text_files_gzipped(built_site):
+    """Each packed file's twin unpacks to the file, and only the twin is precached."""
+    listed = set(re.findall(r'url:"([^"]+)"', (built_site / paths.SERVICE_WORKER_FILE).read_text(encoding="utf-8")))
+    types = _packed(built_site)
+    for page in ("index.html", "calculators/voltage-drop/index.html", "search/search_index.json",
+                 "assets/css/fluxbook.css", "assets/js/fluxbook.js"):
+        assert page in types, page
+    for path, content_type in types.items():
+        twin = built_site / (path + packed.SUFFIX)
+        assert gzip.decompress(twin.read_bytes()) == (built_site / path).read_bytes(), path
+        assert path + packed.SUFFIX in listed and path not in listed, path
+        assert content_type == packed.TYPES[Path(path).suffix]
+    kept = sum((built_site / (path + packed.SUFFIX)).stat().st_size for path in types)
+    plain = sum((built_site / path).stat().st_size for path in types)
+    assert kept < 0.4 * plain  # HTML and scripts gzip to about a third or less
+
+
+def test_what_the_service_worker_needs_plain_stays_plain():
+    for path in (paths.SERVICE_WORKER_FILE, paths.SERVICE_WORKER_SITEMAP, paths.SERVICE_WORKER_UNPACK,
+                 paths.PACKED_LIST_SITE_PATH, "sitemap.xml", f"{paths.PYODIDE_SITE_DIR}/pyodide.asm.mjs",
+                 "assets/javascripts/lunr/min/lunr.de.min.js", "assets/icons/icon-512.png",
+                 paths.CALC_ZIP_SITE_PATH):
+        assert not packed.packable(path), path
+    for path in ("index.html", "assets/javascripts/bundle.0123abcd.min.js", "search/search_index.json",
+                 "manifest.webmanifest", "schedules/school-kitchen-panel.csv", "assets/icons/icon.svg"):
+        assert packed.packable(path), path
+
+
+def test_a_twin_is_the_same_bytes_on_every_build():
+    data = b"<p>pump house, panel PH-1</p>" * 100
+    assert packed.twin(data) == packed.twin(data) and gzip.decompress(packed.twin(data)) == data
