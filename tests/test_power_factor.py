@@ -144,6 +144,15 @@ def test_single_phase_gives_one_capacitance():
     assert out["capacitor_a"] == pytest.approx(out["capacitor_q"] / 240, rel=1e-12)  # I = Q/V
 
 
+def test_the_chart_axis_ends_at_unity_where_its_sum_rounds_past_it():
+    """0.3048 + (1 - 0.3048) × 100 / 100 is 1.0000000000000002 in floating point; the chart's last target
+    must still be 1, not a power factor tan φ cannot take (found by the property below)."""
+    assert 0.3048 + (1 - 0.3048) * 100 / 100.0 > 1.0  # the axis's last point, as written
+    result = run(power=1, pf_now=0.3048, pf_target=1.0, voltage=100, phases="1",
+                 xfmr_kva=None, xfmr_z_pct=None)
+    assert max(result["series"]["x"]["values"]) == 1.0
+
+
 # ---- properties ---------------------------------------------------------------------------------
 
 PF = st.floats(0.3, 0.99)

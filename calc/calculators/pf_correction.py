@@ -392,7 +392,8 @@ def _detuning(result, reactor, s_sc, capacitor_q, frequency, in_proportion):
 
 def _series_without_supply(result, inputs, pf_target):
     """The chart when no supply is given: the bank's reactive power against the target pf."""
-    targets = [inputs["pf_now"] + (1.0 - inputs["pf_now"]) * k / 100.0 for k in range(101)]
+    # min(): pf_now + (1 - pf_now) can round to just over 1 (0.3048 + 0.6952), past tan φ's domain.
+    targets = [min(1.0, inputs["pf_now"] + (1.0 - inputs["pf_now"]) * k / 100.0) for k in range(101)]
     result.series = {
         "title": "Capacitor kvar against the target power factor",
         "x": {"label": "Target power factor", "unit": "", "values": targets},
