@@ -77,7 +77,11 @@ for (const name of ["instantiateStreaming", "instantiate"]) {
   const original = self.WebAssembly && WebAssembly[name];
   if (typeof original !== "function") continue;
   WebAssembly[name] = async function (...args) {
-    if (snapshotFilled) await snapshotFilled; // a failed read fails this; restore() says why
+    // Taken once, by the instantiation of the restore that was handed the array; a failed read
+    // fails it, and that abandoned instance never runs (restore() falls back and says why).
+    const waitFor = name === "instantiateStreaming" ? snapshotFilled : null;
+    if (waitFor) snapshotFilled = null;
+    if (waitFor) await waitFor;
     const module = name === "instantiateStreaming" && compiled ? await compiled : null;
     let result;
     if (module) {
@@ -298,14 +302,21 @@ async function restore(loadPyodide, indexURL, saved, reading, store, calcZip) {
   intact.catch(() => {}); // awaited below
   // A failed read ends the restore at once (Pyodide, whose instantiation it fails, would wait).
   const readFailed = filled.then(() => new Promise(() => {}));
-  snapshotFilled = filled;
+  let readFailure = null;
+  filled.catch((error) => { readFailure = error; });
+  // Settled when Pyodide asks for it: refused once the read has failed (loadPyodide then fails
+  // before it builds anything), else the array, whose instantiation waits for the bytes.
+  const offered = { then(resolve, reject) {
+    if (readFailure) { reject(readFailure); return; }
+    snapshotFilled = filled;
+    resolve(snapshot);
+  } };
   let pyodide;
   try {
     pyodide = await Promise.race([
-      loadPyodide({ indexURL, fullStdLib: false, _loadSnapshot: snapshot }), readFailed]);
+      loadPyodide({ indexURL, fullStdLib: false, _loadSnapshot: offered }), readFailed]);
   } finally {
     heapWanted = 0;
-    snapshotFilled = null;
   }
   await intact;
   // The snapshot fixed the random state at the moment it was taken: draw a new seed.
