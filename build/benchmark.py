@@ -37,7 +37,6 @@ runs are interleaved. The load average is printed: compare runs on the same idle
 import argparse
 import contextlib
 import gzip
-import json
 import math
 import os
 import re
@@ -54,7 +53,7 @@ if str(ROOT) not in sys.path:
 
 from playwright.sync_api import sync_playwright  # noqa: E402
 
-from build.paths import PACKED_LIST_SITE_PATH  # noqa: E402
+from build.packed import read_list  # noqa: E402
 from tests.browser.conftest import CHROMIUM, CHROMIUM_ARGS  # noqa: E402
 from tests.conftest import build_site, serving  # noqa: E402
 
@@ -235,8 +234,7 @@ def precache_bytes(site, pyodide):
     """Sizes of the URLs in sw.js's precache manifest: (count, {group: bytes}); "own_gzip" is
     the own files gzip-compressed (level 9), "largest" the five largest own files."""
     urls = re.findall(r'\burl:"([^"]+)"', (site / "sw.js").read_text(encoding="utf-8"))
-    packed = set(json.loads(re.search(r"self\.FLUXBOOK_PACKED = (\{.*\});", (
-        site / PACKED_LIST_SITE_PATH).read_text(encoding="utf-8"), re.DOTALL).group(1)))
+    packed = set(read_list(site))
     groups = dict.fromkeys(("own", "own_plain", "own_gzip", "vendored", "pyodide", "theme"), 0)
     own = []
     for url in urls:

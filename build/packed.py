@@ -13,6 +13,7 @@ included, where the twin saves at least MIN_SAVING bytes. Not packed: what the s
 import fnmatch
 import gzip
 import json
+import re
 from pathlib import Path, PurePosixPath
 
 from build import paths
@@ -65,6 +66,15 @@ def pack(site_dir):
         packed[site_path] = TYPES[file.suffix]
     (site_dir / paths.PACKED_LIST_SITE_PATH).write_text(list_script(packed), encoding="utf-8")
     return packed
+
+
+_LIST = re.compile(r"self\.FLUXBOOK_PACKED = (\{.*\});", re.DOTALL)
+
+
+def read_list(site_dir):
+    """{site path: Content-Type} of a built site's packed files (the list sw.js imports)."""
+    text = (Path(site_dir) / paths.PACKED_LIST_SITE_PATH).read_text(encoding="utf-8")
+    return json.loads(_LIST.search(text).group(1))
 
 
 def list_script(packed):

@@ -156,13 +156,9 @@ def _precache(site):
     whose gzipped twin is there (build/packed.py; sw-unpack.js serves it)."""
     text = (site / paths.SERVICE_WORKER_FILE).read_text(encoding="utf-8")
     urls = set(re.findall(r'url:"([^"]+)"', text))
-    return urls | {path for path in _packed(site) if path + packed.SUFFIX in urls}
+    return urls | {path for path in packed.read_list(site) if path + packed.SUFFIX in urls}
 
 
-def _packed(site):
-    """{site path: Content-Type} from the list sw.js imports."""
-    text = (site / paths.PACKED_LIST_SITE_PATH).read_text(encoding="utf-8")
-    return json.loads(re.search(r"self\.FLUXBOOK_PACKED = (\{.*\});", text, re.DOTALL).group(1))
 
 
 def test_precache_holds_every_file_the_site_needs(built_site):
@@ -293,7 +289,7 @@ def test_the_placeholder_site_url_is_the_same_everywhere(built_site):
 def test_the_device_keeps_our_text_files_gzipped(built_site):
     """Each packed file's twin unpacks to the file, and only the twin is precached."""
     listed = set(re.findall(r'url:"([^"]+)"', (built_site / paths.SERVICE_WORKER_FILE).read_text(encoding="utf-8")))
-    types = _packed(built_site)
+    types = packed.read_list(built_site)
     for page in ("index.html", "calculators/voltage-drop/index.html", "search/search_index.json",
                  "assets/css/fluxbook.css", "assets/js/fluxbook.js"):
         assert page in types, page
