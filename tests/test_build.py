@@ -9,7 +9,7 @@ from pathlib import Path
 
 import pytest
 
-from build import embed, forms, package_calc, packed, paths, release_files, team
+from build import embed, forms, package_calc, packed, paths, release_files, search_later, team
 from calc import api
 
 ROOT = paths.ROOT
@@ -317,3 +317,53 @@ def test_what_the_service_worker_needs_plain_stays_plain():
 def test_a_twin_is_the_same_bytes_on_every_build():
     data = b"<p>pump house, panel PH-1</p>" * 100
     assert packed.twin(data) == packed.twin(data) and gzip.decompress(packed.twin(data)) == data
+
+
+def _config_of(html):
+    return json.loads(search_later.CONFIG_BLOCK.search(html).group(2))
+
+
+def test_calculator_pages_load_the_theme_s_search_late(built_site):
+    """build/search_later.py: a calculator page's theme config names the stand-in worker, which
+    loads the theme's own worker (beside it); other pages keep the theme's worker."""
+    workers = built_site / search_later.THEME_WORKERS
+    (theme,) = [path.name for path in workers.iterdir() if search_later.THEME_WORKER.fullmatch(path.name)]
+    calculator = _config_of((built_site / "calculators/voltage-drop/index.html").read_text(encoding="utf-8"))
+    home_page = _config_of((built_site / "index.html").read_text(encoding="utf-8"))
+    assert calculator["search"] == "../../" + search_later.WORKER_SITE_PATH
+    assert home_page["search"] == search_later.THEME_WORKERS + theme
+    stand_in = (built_site / search_later.WORKER_SITE_PATH).read_text(encoding="utf-8")
+    assert f'const THEME_WORKER = "{theme}";' in stand_in and "__" not in stand_in.split("(() => {")[1]
+    assert f'"{search_later.CHANNEL}"' in stand_in
+    # the page posts on the same channel
+    page_script = (ROOT / "site_src/assets/js/fluxbook.js").read_text(encoding="utf-8")
+    assert f'const SEARCH_CHANNEL = "{search_later.CHANNEL}";' in page_script
+    precached = (built_site / "sw.js").read_text(encoding="utf-8")
+    assert search_later.WORKER_SITE_PATH in precached  # works offline
+
+
+def test_pointing_the_config_keeps_the_rest_of_it_and_stays_safe_in_a_script():
+    config = {"base": "../..", "search": "../../assets/javascripts/workers/search.0123abcd.min.js",
+              "translations": {"search.result.none": "No </script> & 'matching' <documents>"}}
+    text = json.dumps(config)  # escaped as the theme's template escapes it (Jinja's tojson)
+    for char, escape in (("<", "\\u003c"), (">", "\\u003e"), ("&", "\\u0026"), ("'", "\\u0027")):
+        text = text.replace(char, escape)
+    html = ('<head><script id="__config" type="application/json">' + text +
+            "</script></head><body>pump house</body>")
+    out = search_later.point_config(html)
+    assert out.endswith("</script></head><body>pump house</body>")
+    assert out.count("</script>") == 1 and "<documents>" not in out  # still escaped
+    changed = _config_of(out)
+    assert changed["search"] == "../../assets/javascripts/workers/" + search_later.WORKER_NAME
+    assert changed["translations"] == config["translations"] and changed["base"] == "../.."
+
+
+@pytest.mark.parametrize("html, words", [
+    ("<head></head>", "no theme config"),
+    ('<script id="__config" type="application/json">{"search": "x/lunr.js"}</script>', "x/lunr.js"),
+])
+def test_a_theme_that_changed_stops_the_build(html, words):
+    with pytest.raises(search_later.SearchLaterError, match=words):
+        search_later.point_config(html)
+    with pytest.raises(search_later.SearchLaterError, match="found"):
+        search_later.theme_worker_name(["assets/javascripts/bundle.min.js"])

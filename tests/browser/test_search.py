@@ -1,5 +1,6 @@
 """The theme's search over the lean index (build/slim.py): a technician's words still find the
-calculator, including words the index keeps only in its unshown "words" field."""
+calculator, including words the index keeps only in its unshown "words" field; on a calculator
+page the index is built after the first result (build/search_later.py)."""
 
 import json
 from urllib.parse import urlsplit
@@ -7,7 +8,8 @@ from urllib.parse import urlsplit
 import pytest
 from playwright.sync_api import expect
 
-from build import slim
+from build import search_later, slim
+from tests.browser.conftest import ENGINE_TIMEOUT_MS
 from tests.conftest import serving
 
 
@@ -49,3 +51,63 @@ def test_a_word_kept_only_in_the_words_field_is_found(browser, built_site, site)
                       for word in doc.get(slim.WORDS_FIELD, "").split()
                       if word.isalpha() and len(word) > 6 and word.lower() not in shown)
     assert any(href.endswith(slim.page_of(page)) for href in _results(browser, site, word))
+
+
+def _worker_requests(context):
+    """URLs of the stand-in and the theme's search worker as the page loads them (not the
+    service worker's precaching)."""
+    seen = []
+    context.on("request", lambda request: seen.append(request.url)
+               if request.service_worker is None and "/workers/search" in request.url else None)
+    return seen
+
+
+def _theme_worker_in(seen):
+    return any(search_later.THEME_WORKER.search(url) for url in seen)
+
+
+def test_the_search_index_waits_while_the_engine_starts_and_the_search_box_calls_it(browser, site):
+    """build/search_later.py: with the engine still starting, the theme's worker is not loaded;
+    the search box's focus loads it at once, and the search works."""
+    context = browser.new_context(viewport={"width": 360, "height": 780})
+    try:
+        seen = _worker_requests(context)
+        context.route("**/pyodide.asm.wasm", lambda route: None)  # the engine never starts
+        page = context.new_page()
+        page.goto(site + "calculators/voltage-drop/")
+        for _ in range(100):  # the theme has started its search worker: the stand-in
+            if any(url.endswith(search_later.WORKER_SITE_PATH) for url in seen):
+                break
+            page.wait_for_timeout(100)
+        page.wait_for_timeout(2000)
+        assert not _theme_worker_in(seen), seen
+        page.click("label[for=__search]")
+        page.keyboard.type("GFCI")
+        links = page.locator(".md-search-result__item > a")
+        expect(links.first).to_be_visible()
+        assert _theme_worker_in(seen) and page.get_attribute("[data-calculator]", "data-state") == "starting"
+        assert any(urlsplit(href).path.endswith("calculators/gfci-check/")
+                   for href in links.evaluate_all("all => all.map(a => a.href)"))
+    finally:
+        context.close()
+
+
+def test_a_calculator_page_builds_the_search_index_after_its_first_result(browser, site):
+    context = browser.new_context(viewport={"width": 360, "height": 780})
+    try:
+        seen = _worker_requests(context)
+        page = context.new_page()
+        page.goto(site + "calculators/motor-start-dip/")
+        page.wait_for_selector('[data-calculator][data-state="done"]', timeout=ENGINE_TIMEOUT_MS)
+        for _ in range(50):
+            if _theme_worker_in(seen):
+                break
+            page.wait_for_timeout(100)
+        assert _theme_worker_in(seen), seen
+        page.click("label[for=__search]")
+        page.keyboard.type("lights dim")
+        links = page.locator(".md-search-result__item > a")
+        expect(links.first).to_be_visible()
+        assert any("motor-start-dip" in href for href in links.evaluate_all("all => all.map(a => a.href)"))
+    finally:
+        context.close()
