@@ -1,8 +1,9 @@
 """The engine's memory snapshot on the device (issue 12): a later visit restores from it.
 
-The first full boot takes a snapshot right after importing calc and stores it as it is in Cache
-Storage ("fluxbook-engine-snapshot"), with its SHA-256 and the Pyodide version that made it in
-headers, keyed by Pyodide's folder and calc.zip's SHA-256. These tests read and plant entries
+The first full boot takes a snapshot right after importing calc and stores it without its pages
+of zeros (snapshot-pages.js; tests/test_snapshot_pages.py) in Cache Storage
+("fluxbook-engine-snapshot"), with its SHA-256, its size, the stored layout and the Pyodide
+version that made it in headers, keyed by Pyodide's folder and calc.zip's SHA-256. These tests read and plant entries
 there from the page, then check which start the calculator root reports (data-engine-start) and
 that it still computes.
 """
@@ -17,6 +18,7 @@ from playwright.sync_api import expect
 
 from tests.browser.conftest import ENGINE_TIMEOUT_MS, output, wait_done
 from tests.conftest import serving
+from tests.test_snapshot_pages import unpack
 
 PAGE = "calculators/transformer-currents/"
 CACHE = "fluxbook-engine-snapshot"
@@ -25,6 +27,7 @@ SAVE_TIMEOUT_MS = 120000  # a cold boot, then the snapshot's checksum and storin
 CHECKSUM = "X-Snapshot-SHA256"
 SIZE = "X-Snapshot-Bytes"
 RUNTIME = "X-Snapshot-Pyodide"
+FORMAT = "X-Snapshot-Format"
 
 # Every entry URL of the snapshot cache.
 KEYS_JS = f"""async () => {{
@@ -99,10 +102,9 @@ def plant(context, page, base, url, body, headers):
 def stored_headers(saved, body=None, **change):
     """The saved snapshot's headers; with body, its checksum and size are body's; change
     replaces any (None: left out)."""
-    headers = {name: saved["headers"][name.lower()] for name in (CHECKSUM, SIZE, RUNTIME)}
+    headers = {name: saved["headers"][name.lower()] for name in (CHECKSUM, SIZE, RUNTIME, FORMAT)}
     if body is not None:
         headers[CHECKSUM] = hashlib.sha256(body).hexdigest()
-        headers[SIZE] = str(len(body))
     headers.update(change)
     return {name: value for name, value in headers.items() if value is not None}
 
@@ -162,13 +164,16 @@ def test_the_full_calc_package_snapshot_fits_and_restores(saved, browser, site):
     grows the memory first. This test fails if a grown calc package's snapshot stops restoring,
     and says how close it is to the limit.
     """
-    raw = saved["bytes"]
-    assert len(raw) == saved["size"]
-    assert saved["headers"][CHECKSUM.lower()] == hashlib.sha256(raw).hexdigest()
+    stored = saved["bytes"]
+    assert len(stored) == saved["size"]
+    assert saved["headers"][CHECKSUM.lower()] == hashlib.sha256(stored).hexdigest()
+    assert saved["headers"][FORMAT.lower()] == "fluxbook-pages-1"
+    raw, _ = unpack(stored)
     assert saved["headers"][SIZE.lower()] == str(len(raw))
+    assert len(stored) < 0.8 * len(raw)  # its pages of zeros are not stored
     heap = len(raw) - struct.unpack_from("<I", raw, 4)[0]  # the header's second word: its length
-    print(f"engine snapshot: {len(raw):,} B, heap {heap:,} B = {heap / HEAP_COMPILED:.3f} x the "
-          f"compiled 30 MiB")
+    print(f"engine snapshot: {len(raw):,} B ({len(stored):,} B stored), heap {heap:,} B = "
+          f"{heap / HEAP_COMPILED:.3f} x the compiled 30 MiB")
     if heap > HEAP_COMPILED:
         warnings.warn(f"the engine snapshot's heap ({heap:,} B) is past Pyodide's compiled 30 MiB: "
                       "it restores only through calc-worker.js's memory growth (pyodide issue 6254)")
@@ -192,10 +197,10 @@ def test_a_corrupt_snapshot_is_deleted_and_the_page_still_computes(saved, browse
     if damage == "garbled":  # bytes flipped in the middle, which Pyodide would restore: the checksum fails
         middle = len(good) // 2
         body = good[:middle] + bytes(b ^ 0xFF for b in good[middle:middle + 4096]) + good[middle + 4096:]
-    elif damage == "not a snapshot":  # the wrong bytes with their own checksum: Pyodide refuses them
+    elif damage == "not a snapshot":  # the wrong bytes with their own checksum: not the layout
         body = b"Fluxbook test: not an engine snapshot. " * 50000
         headers = stored_headers(saved, body)
-    elif damage == "truncated":  # shorter than its stored size
+    elif damage == "truncated":  # shorter than its page list says
         body = good[: len(good) // 2]
     else:  # good bytes nothing vouches for
         body, headers = good, stored_headers(saved, **{CHECKSUM: None})
@@ -243,6 +248,7 @@ def test_a_snapshot_of_another_calc_zip_is_not_used_and_is_replaced(saved, brows
 # has grown past 30 MiB (20 MB of ballast), taken the way calc-worker.js takes it, except that
 # only calc.api is imported: the restore must also put calc's files back at once for the rest.
 BALLAST_WORKER = """
+import * as pages from "../assets/js/snapshot-pages.js";
 self.onmessage = async ({ data: { indexURL, calcZipURL } }) => {
   try {
     const { loadPyodide, version } = await import(new URL("pyodide.mjs", indexURL).href);
@@ -253,9 +259,10 @@ self.onmessage = async ({ data: { indexURL, calcZipURL } }) => {
 import builtins\\nbuiltins._test_ballast = [bytes(1000) + str(i).encode() for i in range(20000)]
 import gc\\ngc.collect()`);
     const raw = pyodide.makeMemorySnapshot();
-    const digest = new Uint8Array(await crypto.subtle.digest("SHA-256", raw));
+    const stored = pages.pack(raw);
+    const digest = new Uint8Array(await crypto.subtle.digest("SHA-256", stored));
     const sha = Array.from(digest, (byte) => byte.toString(16).padStart(2, "0")).join("");
-    self.postMessage({ raw, sha, version });
+    self.postMessage({ stored, size: raw.length, sha, version, format: pages.FORMAT });
   } catch (error) { self.postMessage({ error: String(error && error.stack || error) }); }
 };
 """
@@ -271,10 +278,10 @@ MAKE_BALLAST_JS = """async ([workerURL, url]) => {
   });
   worker.terminate();
   if (made.error) return made;
-  await (await caches.open("fluxbook-engine-snapshot")).put(url, new Response(made.raw, { headers: {
-    "X-Snapshot-SHA256": made.sha, "X-Snapshot-Bytes": String(made.raw.length),
-    "X-Snapshot-Pyodide": made.version } }));
-  return { raw: made.raw.length };
+  await (await caches.open("fluxbook-engine-snapshot")).put(url, new Response(made.stored, { headers: {
+    "X-Snapshot-SHA256": made.sha, "X-Snapshot-Bytes": String(made.size),
+    "X-Snapshot-Pyodide": made.version, "X-Snapshot-Format": made.format } }));
+  return { raw: made.size };
 }"""
 
 
@@ -344,6 +351,27 @@ def test_a_snapshot_of_another_pyodide_is_not_used_and_is_replaced(saved, browse
         mine = wait_saved(page)
         assert mine["url"] == saved["url"]
         assert mine["headers"][RUNTIME.lower()] == saved["headers"][RUNTIME.lower()] != "0.0.1"
+    finally:
+        context.close()
+
+
+def test_a_snapshot_stored_whole_by_an_earlier_worker_is_not_used_and_is_replaced(saved, browser, site):
+    """An earlier calc-worker.js stored the snapshot whole, with no layout named; a device may
+    hold one under the same key (calc.zip unchanged): it starts in full and stores a new one."""
+    raw, _ = unpack(saved["bytes"])
+    context = new_context(browser)
+    try:
+        page = context.new_page()
+        page.goto(site)
+        plant(context, page, site, saved["url"], raw, stored_headers(saved, raw, **{FORMAT: None}))
+        page.goto(site + PAGE)
+        wait_done(page)
+        assert start_of(page) == "normal"
+        assert output(page, "secondary_a") == "208 A"
+        mine = wait_saved(page)
+        assert mine["url"] == saved["url"]
+        assert mine["headers"][FORMAT.lower()] == "fluxbook-pages-1"
+        assert saved["url"].removesuffix(".bin") + ".failed" not in page.evaluate(KEYS_JS)
     finally:
         context.close()
 

@@ -3,13 +3,15 @@
 //
 // Quick start: the first full boot on a device takes a memory snapshot of the engine right after
 // importing calc (before any calculation) and, once the first result is out, stores it in Cache
-// Storage as it is, with its SHA-256, keyed by Pyodide's folder and calc.zip's SHA-256. A later
-// visit restores from it instead of booting. It is kept uncompressed: the browser reads it off
-// this thread while Pyodide's scripts load and its wasm compiles, where un-gzipping 31.5 MB took
-// about 0.2 s of this thread first; a phone has the room. The checksum, checked while Pyodide
-// restores, stands in for gzip's check of the bytes. Any failure to restore deletes it, marks
-// this release's snapshot as failed (none is made again until a new release) and boots in full.
+// Storage without its pages of zeros (snapshot-pages.js), with its SHA-256, keyed by Pyodide's
+// folder and calc.zip's SHA-256. A later visit restores from it instead of booting. It is not
+// gzipped: the browser reads it off this thread while Pyodide's scripts load and its wasm
+// compiles, where un-gzipping took about 0.2 s of this thread first; a phone has the room. The
+// checksum, checked while Pyodide restores, stands in for gzip's check of the bytes. Any failure
+// to restore deletes it, marks this release's snapshot as failed (none is made again until a new
+// release) and boots in full.
 import * as messages from "./messages.js";
+import * as pages from "./snapshot-pages.js";
 
 const CALC_DIR = "/home/pyodide/fluxbook";
 const SNAPSHOT_CACHE = "fluxbook-engine-snapshot";
@@ -17,6 +19,7 @@ const SNAPSHOT_IDLE_MS = 3000; // no calculation this long after ready: save the
 const CHECKSUM_HEADER = "X-Snapshot-SHA256";
 const SIZE_HEADER = "X-Snapshot-Bytes";
 const RUNTIME_HEADER = "X-Snapshot-Pyodide"; // the version of Pyodide that made it
+const FORMAT_HEADER = "X-Snapshot-Format"; // pages.FORMAT: how it is stored
 // Imported before the snapshot is taken, so a restored engine has nothing left to import.
 const ENGINE_MODULES = ["calc.api", "calc.jobs", "calc.batch"];
 const RESTORE_BUSY_MS = 30000; // a restore marked as begun this recently may be another tab's
@@ -160,12 +163,16 @@ class SnapshotStore {
     await cache.delete(this.restoringURL);
   }
 
+  // bytes: the snapshot; stored without its pages of zeros. Its size as stored, in bytes.
   async save(bytes, pyodideVersion) {
-    const checksum = await sha256(bytes);
+    const stored = pages.pack(bytes);
+    const checksum = await sha256(stored);
     const cache = await this.opened;
-    await cache.put(this.url, new Response(bytes, { headers: {
+    await cache.put(this.url, new Response(stored, { headers: {
       "Content-Type": "application/octet-stream", [CHECKSUM_HEADER]: checksum,
-      [SIZE_HEADER]: String(bytes.length), [RUNTIME_HEADER]: pyodideVersion } }));
+      [SIZE_HEADER]: String(bytes.length), [RUNTIME_HEADER]: pyodideVersion,
+      [FORMAT_HEADER]: pages.FORMAT } }));
+    return stored.length;
   }
 
   // Entries of other releases of this copy of the site go as soon as this one boots.
@@ -205,6 +212,11 @@ async function start(options) {
     self.postMessage(messages.snapshot("unavailable", describe(error)));
   }
   if (store) store.pruneOthers().catch(() => {});
+  // Stored by another version of this worker, in another layout: not used; a new one is made.
+  if (plan.saved && plan.saved.headers.get(FORMAT_HEADER) !== pages.FORMAT) {
+    await store.discard().catch(() => {});
+    plan = { saved: null, mayMake: true };
+  }
   // Read while the loader and the runtime load, and the wasm compiles.
   const reading = plan.saved ? plan.saved.arrayBuffer() : null;
   if (reading) reading.catch(() => {}); // restore() reports a failure
@@ -285,19 +297,16 @@ async function restore(loadPyodide, indexURL, saved, reading, store, calcZip) {
     throw new Error("the stored snapshot does not give its size and SHA-256");
   }
   const began = store.beginRestore().catch(() => {});
-  const snapshot = new Uint8Array(size);
-  const filled = reading.then((buffer) => {
-    if (buffer.byteLength !== size) {
-      throw new Error(`the stored snapshot is ${buffer.byteLength} bytes long, not ${size}`);
-    }
-    snapshot.set(new Uint8Array(buffer));
-    // The header's second word is its own length; the rest is the wasm heap.
-    heapWanted = size - new DataView(buffer).getUint32(4, true);
-  });
-  // Checked while Pyodide restores (the digest runs off this thread); a damaged copy is caught
-  // before the engine answers anything.
-  const intact = filled.then(() => sha256(snapshot)).then((actual) => {
+  // The stored copy, checked while it is unpacked and Pyodide restores (the digest runs off this
+  // thread, so it is started first); a damaged copy is caught before the engine answers anything.
+  const intact = reading.then((buffer) => sha256(buffer)).then((actual) => {
     if (actual !== expected) throw new Error("the stored snapshot is damaged (its SHA-256 does not match)");
+  });
+  const snapshot = new Uint8Array(size); // zeros, but for the stored pages written in below
+  const filled = reading.then((buffer) => {
+    pages.unpackInto(new Uint8Array(buffer), snapshot);
+    // The snapshot header's second word is its own length; the rest is the wasm heap.
+    heapWanted = size - new DataView(snapshot.buffer).getUint32(4, true);
   });
   intact.catch(() => {}); // awaited below
   // A failed read ends the restore at once (Pyodide, whose instantiation it fails, would wait).
@@ -363,9 +372,9 @@ async function saveSnapshot() {
   if (!taken) return;
   try {
     const began = performance.now();
-    await taken.store.save(taken.bytes, taken.pyodideVersion);
+    const stored = await taken.store.save(taken.bytes, taken.pyodideVersion);
     self.postMessage(messages.snapshot("saved", `${(taken.bytes.length / 1e6).toFixed(1)} MB, ` +
-      `in ${Math.round(performance.now() - began)} ms`));
+      `${(stored / 1e6).toFixed(1)} MB stored, in ${Math.round(performance.now() - began)} ms`));
   } catch (error) { // quota exceeded, storage cleared meanwhile: a full start next time
     self.postMessage(messages.snapshot("unavailable", describe(error)));
   }
