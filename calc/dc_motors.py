@@ -52,6 +52,10 @@ SETTLED = 0.002  # within 0.2 % of the steady speed and current counts as settle
 SETTLE_MARGIN = 1.1  # the chart runs on 10 % past settling
 TIME_CONSTANTS = 6.0  # a stage's run-up is taken as 6 time constants (0.25 % left)
 MAX_STARTER_STEPS = 20  # a starter needing more sections is refused
+# Classical RK4 (E. Hairer, S. P. Nørsett and G. Wanner, Solving Ordinary Differential Equations
+# I, 2nd ed., section II.1 — from memory): each stage's weight in the sum (over 6) and how far
+# along the step the next stage is taken (exact).
+RK4_STAGES = ((1.0, 0.5), (2.0, 0.5), (2.0, 1.0), (1.0, 0.0))
 
 
 class DCMotor(NamedTuple):
@@ -373,8 +377,9 @@ def steady_state(motor, resistance):
     Notes
     -----
     f(ω) = T_e(i(ω)) − T_load(ω) − B ω falls with ω for every motor type and load here, so the
-    root is found by bisection (100 halvings: to the last bit). With L di/dt = 0 the current is
-    i = (V − k ω) / R (constant flux) or V / (R + k_s ω) (series).
+    root is found by bisection to the last bit (until the bracket is two neighbouring floats, at
+    most 100 halvings). With L di/dt = 0 the current is i = (V − k ω) / R (constant flux) or
+    V / (R + k_s ω) (series).
 
     References
     ----------
@@ -387,9 +392,7 @@ def steady_state(motor, resistance):
     >>> [round(x, 2) for x in steady_state(motor, 0.5)]
     [193.6, 16.0]
     """
-    def surplus(speed):
-        return motor.torque(motor.quasi_current(resistance, speed)) - motor.load_at(speed)
-
+    surplus = _surplus_of(motor, resistance)
     if surplus(0.0) <= 0.0:
         return 0.0, motor.quasi_current(resistance, 0.0)
     if motor.series:
@@ -405,58 +408,80 @@ def steady_state(motor, resistance):
     low = 0.0
     for _ in range(100):
         middle = 0.5 * (low + high)
+        last = middle in (low, high)  # adjacent floats: one more halving settles them for good
         if surplus(middle) > 0.0:
             low = middle
         else:
             high = middle
+        if last:
+            break
     speed = 0.5 * (low + high)
     return speed, motor.quasi_current(resistance, speed)
 
 
-def _rates_of(motor, resistance, quasi):
-    """rates(current, speed) -> (di/dt, dω/dt) for one motor and circuit resistance.
+def _surplus_of(motor, resistance):
+    """surplus(speed) -> T_e − T_load − B ω [N·m] with the current at i(ω) (inductance aside).
 
-    The arithmetic of DCMotor.emf, torque, load_at and quasi_current written out once with the
-    motor's numbers bound, because the run-up calls it four times a step (the browser's
-    recompute time). A load never drives the rotor backwards from standstill (it holds).
+    DCMotor.torque(quasi_current) − load_at written out with the motor's numbers bound, the same
+    arithmetic in the same order: steady_state's bisection and the reduced model's run-up call it
+    hundreds to thousands of times a recompute.
+    """
+    series, k, voltage, damping = motor.series, motor.constant, motor.voltage, motor.damping
+    fan, load_speed = motor.load == "fan", motor.load_speed
+    held = motor.load_torque if motor.load != "none" else 0.0  # 0 + friction is friction
+
+    def surplus(speed):
+        current = (voltage / (resistance + k * speed) if series
+                   else (voltage - k * speed) / resistance)
+        return k * (current * current if series else current) - (
+            (held * (speed / load_speed) ** 2 if fan else held) + damping * speed)
+
+    return surplus
+
+
+def _stepper(motor, resistance, quasi):
+    """step(current, speed, h) -> (current, speed) after one classical RK4 step of h [s].
+
+    The run-up takes about 1500 steps on each keystroke in the browser, so a step is one call:
+    the full model's right-hand side (DCMotor.emf, torque and load_at) is written out with the
+    motor's numbers bound, the same arithmetic in the same order as those methods. With `quasi`
+    the inductance is neglected: the current follows the speed (_surplus_of gives the torque),
+    and only the speed is integrated. A load never drives the rotor backwards from standstill
+    (it holds).
     """
     series, k, voltage = motor.series, motor.constant, motor.voltage
     inductance, inertia, damping = motor.inductance, motor.inertia, motor.damping
-    load, load_torque, load_speed = motor.load, motor.load_torque, motor.load_speed
-    fan, constant_load = load == "fan", load == "constant"
+    fan, load_speed = motor.load == "fan", motor.load_speed
+    held = motor.load_torque if motor.load != "none" else 0.0  # 0 + friction is friction
 
-    def rates(current, speed):
-        if quasi:
-            current = (voltage / (resistance + k * speed) if series
-                       else (voltage - k * speed) / resistance)
-            di = 0.0
-        else:
-            di = (voltage - resistance * current - k * (current if series else 1.0) * speed) \
-                / inductance
-        friction = damping * speed
-        if fan:
-            opposing = load_torque * (speed / load_speed) ** 2 + friction
-        elif constant_load:
-            opposing = load_torque + friction
-        else:
-            opposing = friction
-        net = k * (current * current if series else current) - opposing
-        dw = 0.0 if speed <= 0.0 and net < 0.0 else net / inertia
-        return di, dw
-
-    return rates
-
-
-def _rk4(motor, resistance, current, speed, h, quasi, rates):
-    """One RK4 step; `rates` is _rates_of(motor, resistance, quasi)."""
-    a1, b1 = rates(current, speed)
-    a2, b2 = rates(current + 0.5 * h * a1, speed + 0.5 * h * b1)
-    a3, b3 = rates(current + 0.5 * h * a2, speed + 0.5 * h * b2)
-    a4, b4 = rates(current + h * a3, speed + h * b3)
-    speed = speed + h / 6.0 * (b1 + 2.0 * b2 + 2.0 * b3 + b4)
     if quasi:
-        return motor.quasi_current(resistance, speed), speed
-    return current + h / 6.0 * (a1 + 2.0 * a2 + 2.0 * a3 + a4), speed
+        surplus = _surplus_of(motor, resistance)
+
+        def step(current, speed, h):
+            w, total = speed, 0.0
+            for weight, share in RK4_STAGES:
+                net = surplus(w)
+                dw = 0.0 if w <= 0.0 and net < 0.0 else net / inertia
+                total += weight * dw
+                w = speed + share * h * dw
+            speed = speed + h / 6.0 * total
+            return motor.quasi_current(resistance, speed), speed
+        return step
+
+    def step(current, speed, h):
+        i, w, sum_i, sum_w = current, speed, 0.0, 0.0
+        for weight, share in RK4_STAGES:
+            di = (voltage - resistance * i - k * (i if series else 1.0) * w) / inductance
+            net = k * (i * i if series else i) - (
+                (held * (w / load_speed) ** 2 if fan else held) + damping * w)
+            dw = 0.0 if w <= 0.0 and net < 0.0 else net / inertia
+            sum_i += weight * di
+            sum_w += weight * dw
+            reach = share * h
+            i, w = current + reach * di, speed + reach * dw
+        return current + h / 6.0 * sum_i, speed + h / 6.0 * sum_w
+
+    return step
 
 
 def _fastest_rate(motor, resistance, current, speed, quasi):
@@ -603,19 +628,23 @@ def _integrate(motor, totals, steadies, switch_current, longest, quasi):
     time, currents, speeds = [t], [current], [speed]
     switches, peak = [], abs(current)
     stop, settled, hung, steps = None, False, False, 0
-    rates, rates_stage = None, None
+    # Each stage's steady state, how near its speed counts as settled [rad/s], and whether the
+    # run may stop there (the last stage, or one the motor cannot leave).
+    goals = [(w, i, SETTLED * max(w, 1e-12), n == last or w <= 0.0 or i > switch_current)
+             for n, (w, i) in enumerate(steadies)]
+    steady_w, steady_i, speed_band, may_stop = goals[0]
+    # Constant flux and no fan: the fastest rate, so the step, is the same at every state.
+    fixed_step = not motor.series and motor.load != "fan"
+    step, fastest, h = _phase(motor, totals[0], quasi, longest, current, speed)
     while steps < MAX_STEPS:
-        total = totals[stage]
-        if rates_stage != stage:
-            rates, fastest = _rates_of(motor, total, quasi), _fastest_rate_of(motor, total, quasi)
-            rates_stage = stage
-        h = min(longest, STEP_RATE / fastest(current, speed))
-        new_i, new_w = _rk4(motor, total, current, speed, h, quasi, rates)
+        if not fixed_step:
+            h = min(longest, STEP_RATE / fastest(current, speed))
+        new_i, new_w = step(current, speed, h)
         steps += 1
         crossing = stage < last and current > switch_current >= new_i
         if crossing:
-            h, new_i, new_w, steps = _locate_switch(motor, total, current, speed, h, quasi,
-                                                    switch_current, new_i, steps, rates)
+            h, new_i, new_w, steps = _locate_switch(step, current, speed, h, switch_current,
+                                                    new_i, steps)
         t += h
         current, speed = new_i, new_w
         if crossing:
@@ -626,33 +655,42 @@ def _integrate(motor, totals, steadies, switch_current, longest, quasi):
                 currents.append(current)
                 speeds.append(speed)
                 current = motor.quasi_current(totals[stage], speed)  # the jump at the cut
+            step, fastest, h = _phase(motor, totals[stage], quasi, longest, current, speed)
+            steady_w, steady_i, speed_band, may_stop = goals[stage]
         time.append(t)
         currents.append(current)
         speeds.append(speed)
-        peak = max(peak, abs(current))
-        if stop is None:
-            steady_w, steady_i = steadies[stage]
-            near = (abs(speed - steady_w) <= SETTLED * max(steady_w, 1e-12)
-                    and abs(current - steady_i) <= SETTLED * peak)
-            if near and (stage == last or steady_w <= 0.0 or steady_i > switch_current):
-                settled, hung = stage == last, stage != last
-                stop = t * SETTLE_MARGIN
+        if abs(current) > peak:
+            peak = abs(current)
+        if (stop is None and abs(speed - steady_w) <= speed_band
+                and abs(current - steady_i) <= SETTLED * peak and may_stop):
+            settled, hung = stage == last, stage != last
+            stop = t * SETTLE_MARGIN
         if stop is not None and t >= stop:
             break
-    emfs = [motor.emf(i, w) for i, w in zip(currents, speeds)]
+    k = motor.constant
+    emfs = [k * i * w for i, w in zip(currents, speeds)] if motor.series else \
+        [k * w for w in speeds]  # DCMotor.emf: k (i or 1) ω, in that order
     steady_w, steady_i = steadies[last]
     return RunUp(time, currents, speeds, emfs, switches, steady_w, steady_i, settled, hung,
                  quasi, steps)
 
 
-def _locate_switch(motor, total, current, speed, h, quasi, target, new_i, steps, rates):
+def _phase(motor, total, quasi, longest, current, speed):
+    """(step, fastest, h) on one starter step: the RK4 step and the fastest rate with the
+    circuit's resistance bound, and the step length at this state [s]."""
+    step, fastest = _stepper(motor, total, quasi), _fastest_rate_of(motor, total, quasi)
+    return step, fastest, min(longest, STEP_RATE / fastest(current, speed))
+
+
+def _locate_switch(step, current, speed, h, target, new_i, steps):
     """Shorten a step to end where the current reaches `target` (three regula-falsi passes)."""
     low, high = 0.0, 1.0
     g_low, g_high = current - target, new_i - target
     fraction, state = 1.0, None
     for _ in range(3):
         fraction = low + (high - low) * g_low / (g_low - g_high) if g_low != g_high else high
-        state = _rk4(motor, total, current, speed, fraction * h, quasi, rates)
+        state = step(current, speed, fraction * h)
         steps += 1
         g = state[0] - target
         if g > 0.0:
