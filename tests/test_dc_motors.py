@@ -455,6 +455,62 @@ def test_steady_state_stops_where_a_hundred_halvings_end(m, resistance):
     assert current == m.quasi_current(resistance, speed)
 
 
+# ==== back-emf: charts ========================================================================
+# A phone's chart: on a 360 px screen the plot is about 280 px wide, and at least 220 px high
+# (charts.js plotHeight).
+PHONE_PLOT = (280.0, 220.0)
+
+
+def pixels_off(times, values, keep):
+    """Largest distance [px] from any sample to the line drawn through the kept ones, on a
+    phone's plot from time 0 to the last sample and from 0 (or the lowest value) to the peak."""
+    t, v = np.asarray(times), np.asarray(values)
+    x = t / t[-1] * PHONE_PLOT[0]
+    low = min(v.min(), 0.0)
+    y = (v - low) / (v.max() - low) * PHONE_PLOT[1]
+    ax, ay = x[keep][:-1, None], y[keep][:-1, None]
+    dx, dy = x[keep][1:, None] - ax, y[keep][1:, None] - ay
+    length = np.where(dx * dx + dy * dy > 0.0, dx * dx + dy * dy, 1.0)
+    along = np.clip(((x - ax) * dx + (y - ay) * dy) / length, 0.0, 1.0)
+    return np.max(np.min(np.hypot(ax + along * dx - x, ay + along * dy - y), axis=0))
+
+
+@pytest.mark.parametrize("m, sections, switch", [
+    (motor(), (), None), (motor("pm", "fan"), (), None),
+    (motor("shunt", "constant", 16.76), SHUNT_STARTER, 20.0),
+    (motor("shunt", "constant", 20.0, inductance=0.2), SHUNT_STARTER, 20.0),
+    (motor("shunt", "constant", 20.0, inductance=0.5)._replace(inertia=0.001), (), None)],
+    ids=["shunt", "pm-fan", "starter-reduced", "starter-full", "ringing"])
+def test_current_chart_keeps_its_shape_in_fewer_points(m, sections, switch):
+    # At most about CHART_POINTS points (two from each of CHART_POINTS / 2 runs, the first and
+    # the last, and the samples at each cut), and no sample more than a pixel off the line drawn
+    # through them on a phone (measured at most 0.6 px; the ringing run's every peak is kept).
+    run_up = motors.run_up(m, sections, switch)
+    keep = back_emf._thin(run_up.time, run_up.current, run_up.switch_times)
+    cuts = {n for n, t in enumerate(run_up.time) if t in run_up.switch_times}
+    assert len(run_up.time) > back_emf.CHART_POINTS
+    assert len(keep) <= back_emf.CHART_POINTS + 3 + len(cuts)
+    assert {0, len(run_up.time) - 1, int(np.argmax(run_up.current))} | cuts <= set(keep)
+    assert pixels_off(run_up.time, run_up.current, keep) <= 1.0
+
+
+def test_stall_chart_points_draw_the_exponential():
+    # 250 V on 10.87 Ω stalls at 23 A against 20 A rated: θ_ss = 80 × (23/20)² = 105.8 K, under
+    # the 115 K left to class F, so the chart runs 5 τ from ambient (cold). Between neighbouring
+    # points a straight line strays from θ_ss (1 − e^(−t/τ)) by at most (Δt/τ)²/8 θ_ss; asserted
+    # within 1e-3 of θ_ss, a third of a pixel of a 340 px chart (measured 3e-4).
+    result = run("back-emf", armature_r="10.87 ohm", rated_current=20, current=16,
+                 start_limit="", start_hot=False)
+    (chart,) = [c for c in result["series"] if "stalled" in c["title"]]
+    times, temperatures = np.array(chart["x"]["values"]), np.array(chart["y"][0]["values"])
+    tau, steady = 1800.0, 80.0 * (250 / 10.87 / 20) ** 2
+    assert times[-1] == pytest.approx(5 * tau, rel=1e-12)
+    middles = (times[1:] + times[:-1]) / 2
+    exact = 40.0 + steady * (1 - np.exp(-middles / tau))
+    drawn = (temperatures[1:] + temperatures[:-1]) / 2
+    assert np.max(np.abs(drawn - exact)) <= 1e-3 * steady
+
+
 # ==== back-emf: stalled-armature heating ======================================================
 
 def test_stall_time_worked_example():

@@ -5,6 +5,8 @@ fast does a stalled armature heat?
 Physics in calc.dc_motors; this module holds the spec, the view, its checks and charts.
 """
 
+from bisect import bisect_left, bisect_right
+
 from calc import cautions
 from calc import dc_motors as dc
 from calc.calculators._plausibility import outside, plausibility
@@ -24,7 +26,11 @@ LOAD_KINDS = (
 )
 
 RUN_UP_SHARE = 0.95  # run-up time: to 95 % of the steady speed
-CHART_POINTS = 301
+CHART_POINTS = 301  # points of a simulated curve: about one a pixel across a phone's chart
+# The stalled winding's temperature is one exponential, θ_ss + (θ_0 − θ_ss) e^(−t/τ), over at
+# most 5 τ: between neighbours of STALL_POINTS evenly spread, a straight line strays at most
+# (Δt/τ)²/8 ≤ (5/100)²/8 = 3e-4 of the rise, well under a pixel of the chart.
+STALL_POINTS = 101
 # A current-sensing starter cuts a step when the current falls to the switch-out current; the
 # load's own steady current must sit below it by this margin or the starter would wait forever.
 SWITCH_MARGIN = 1.05
@@ -53,26 +59,34 @@ def _time_to_share(times, values, target):
 
 def _resample(times, values, grid):
     """Linear interpolation of samples onto `grid`; the last value is held beyond the end."""
-    out, n = [], 1
+    out, end, last = [], times[-1], len(times) - 1
     for t in grid:
-        while n < len(times) - 1 and times[n] < t:
-            n += 1
-        if t >= times[-1]:
+        if t >= end:
             out.append(values[-1])
             continue
+        n = bisect_left(times, t, 1, last)  # the first sample at or after t (1 to last)
         t0, t1 = times[n - 1], times[n]
         share = (t - t0) / (t1 - t0) if t1 > t0 else 1.0
         out.append(values[n - 1] + share * (values[n] - values[n - 1]))
     return out
 
 
-def _thin(times, keep_times, points=CHART_POINTS):
-    """Indices of about `points` samples, evenly spread, plus every sample at a time in
-    `keep_times` (so a chart keeps the current's jump at each starter cut)."""
-    stride = max(1, len(times) // points)
-    keep = set(range(0, len(times), stride)) | {len(times) - 1}
-    marked = set(keep_times)
-    keep |= {n for n, t in enumerate(times) if t in marked}
+def _thin(times, values, keep_times, points=CHART_POINTS):
+    """Indices of at most about `points` samples that keep a curve's shape: the first and last,
+    the lowest and the highest of each run of samples (no peak is lost between the kept ones),
+    and every sample at a time in `keep_times` (so a chart keeps the current's jump at each
+    starter cut)."""
+    size = len(times)
+    if size <= points:
+        return list(range(size))
+    width = -(-2 * size // points)  # samples in a run: points / 2 runs, two kept from each
+    keep = {0, size - 1}
+    for start in range(0, size, width):
+        run = values[start:start + width]
+        keep.add(start + run.index(min(run)))
+        keep.add(start + run.index(max(run)))
+    for t in keep_times:
+        keep.update(range(bisect_left(times, t), bisect_right(times, t)))
     return sorted(keep)
 
 
@@ -423,8 +437,8 @@ def _describe_runs(result, runs, motor, allowed, speed_ref):
                      "memory).")
 
 
-def _grid(end):
-    return [end * n / (CHART_POINTS - 1) for n in range(CHART_POINTS)]
+def _grid(end, points=CHART_POINTS):
+    return [end * n / (points - 1) for n in range(points)]
 
 
 def _chart(title, x_label, grid, axis, unit, lines, marks=()):
@@ -440,7 +454,7 @@ def _run_charts(runs, motor, rated_a, allowed):
     marks = [{"axis": "y", "value": rated_a, "label": "Rated current"}]
     charts = []
     for label, run in runs:
-        keep = _thin(run.time, run.switch_times)
+        keep = _thin(run.time, run.current, run.switch_times)
         shown = marks + ([{"axis": "y", "value": allowed, "label": "Starter limit"}]
                          if allowed is not None and run.switch_times else [])
         charts.append(_chart(f"Armature current during the run-up, {label.lower()}", "Time",
@@ -500,7 +514,7 @@ def _stall(inputs, result, voltage, r_a, rated_a, allowed):
                          f"{insulation} limit in about {fq(t, 's')}: its protection must clear "
                          "well within that.")
             span = min(1.5 * t, 5.0 * tau)
-        grid = _grid(span)
+        grid = _grid(span, STALL_POINTS)
         temperatures = [ambient + dc.winding_temperature_rise(time, amps, rated_a, rated_rise,
                                                               tau, initial) for time in grid]
         result.series.append(_chart(f"Winding temperature with the rotor stalled {label}",
