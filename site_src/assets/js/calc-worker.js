@@ -42,12 +42,21 @@ let pendingFiles = null; // after a restore: puts calc's files back, once, after
 // Offline fallback (Firefox has been reported to let a worker's fetch bypass the service
 // worker when offline): if the network fails, answer from the precache in Cache Storage.
 const networkFetch = self.fetch.bind(self);
+// Files Pyodide reads as it starts, asked for when the worker starts (prefetch below) rather
+// than when Pyodide gets to them: URL -> a promise of the response, taken once.
+const prefetched = new Map();
 self.fetch = async (request, init) => {
+  const url = String(request && request.url ? request.url : request);
   // The runtime's wasm, when it is compiled already (below): Pyodide's own request for it is
   // answered with nothing, as its instantiateStreaming is given the compiled module instead.
-  if (compiled && String(request && request.url ? request.url : request) === compiledURL &&
-      (await compiled)) {
+  if (compiled && url === compiledURL && (await compiled)) {
     return new Response(new Uint8Array(0), { headers: { "Content-Type": "application/wasm" } });
+  }
+  const early = prefetched.get(url);
+  if (early) {
+    prefetched.delete(url);
+    const response = await early.catch(() => null);
+    if (response && response.ok) return response; // else asked again, as Pyodide asked
   }
   try {
     return await networkFetch(request, init);
@@ -64,9 +73,10 @@ self.fetch = async (request, init) => {
 // under way, grow the new instance's memory to the snapshot's heap before Emscripten makes its
 // views of it. Only the instance whose exported memory is smaller than wanted is touched.
 //
-// Before a restore, the runtime's wasm is compiled as soon as the snapshot is found
-// (`compiled`), in parallel with reading it: Pyodide itself compiles only once it holds the
-// snapshot's bytes. Its instantiateStreaming is then given the compiled module.
+// The runtime's wasm is compiled as soon as the worker starts (`compiled`), in parallel with
+// looking the snapshot up and reading it: Pyodide itself compiles only once it holds the
+// snapshot's bytes (or, in a full start, once its loader is in). Its instantiateStreaming is
+// then given the compiled module.
 //
 // Pyodide waits for the snapshot's bytes before it builds its module (about 0.1 s of script), so
 // it is handed an array of the stored size at once and the bytes are copied in when read;
@@ -195,6 +205,8 @@ async function start(options) {
   runtimeScript.catch(() => {}); // loadPyodide imports it again and reports a failure
   const calcZip = fetchCalcZip(calcZipURL);
   calcZip.catch(() => {}); // awaited below; a failure there is reported there
+  prefetch(indexURL);
+  compiled = compileRuntime(indexURL); // a restore and a full start both take it
 
   let store = null;
   let plan = { saved: null, mayMake: false };
@@ -220,7 +232,6 @@ async function start(options) {
   // Read while the loader and the runtime load, and the wasm compiles.
   const reading = plan.saved ? plan.saved.arrayBuffer() : null;
   if (reading) reading.catch(() => {}); // restore() reports a failure
-  if (reading) compiled = compileRuntime(indexURL);
 
   const { loadPyodide, version: pyodideVersion } = await loader;
   if (plan.saved && plan.saved.headers.get(RUNTIME_HEADER) !== pyodideVersion) {
@@ -260,6 +271,17 @@ async function start(options) {
   }
   ready(pyodide, "normal");
   scheduleSave(SNAPSHOT_IDLE_MS);
+}
+
+// The standard library and the package list, which Pyodide reads before it restores or boots
+// (its fetches take these responses): read while the loader loads, not after.
+function prefetch(indexURL) {
+  for (const name of ["python_stdlib.zip", "pyodide-lock.json"]) {
+    const url = new URL(name, indexURL).href;
+    const response = networkFetch(url, { credentials: "same-origin" });
+    response.catch(() => {}); // Pyodide asks again and reports a failure
+    prefetched.set(url, response);
+  }
 }
 
 // Pyodide's wasm, compiled now; null where this browser cannot (Pyodide then compiles it itself).
@@ -380,16 +402,20 @@ async function saveSnapshot() {
   }
 }
 
+// Boots once, from the worker's name or from a "boot" message, whichever comes first.
+function boot(message) {
+  if (started) return;
+  started = true;
+  start(message).then(bootDone, (error) => {
+    self.postMessage(messages.stage("failed", describe(error)));
+    bootFailed(error);
+  });
+}
+
 self.onmessage = async (event) => {
   const message = event.data;
   if (message.type === "boot") {
-    if (!started) {
-      started = true;
-      start(message).then(bootDone, (error) => {
-        self.postMessage(messages.stage("failed", describe(error)));
-        bootFailed(error);
-      });
-    }
+    boot(message);
     return;
   }
   if (message.type !== "run" && message.type !== "call" && message.type !== "batch") return;
@@ -425,4 +451,15 @@ function describe(error) {
 function isFatal(error) {
   return Boolean(error) && (error.name === "FatalPyodideError" ||
     /fatally failed|Pyodide has suffered a fatal error/i.test(describe(error)));
+}
+
+// The page names the worker with its boot message (engine-start.js, engine.js), so the boot
+// starts as soon as this module has run. A posted message is handed over only once the page's
+// main thread has heard that the module ran, and that thread is busy with the page's own
+// scripts just then: about 70 ms later in a trace of a calculator page's reload.
+try {
+  const named = self.name ? JSON.parse(self.name) : null;
+  if (named && named.type === "boot") boot(named);
+} catch (error) {
+  // a name that is not a boot message: wait for the message
 }

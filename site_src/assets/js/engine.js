@@ -41,10 +41,11 @@ class Engine {
 
   // Start a worker and boot it; snapshot: "use", or "discard" after a restore that hung.
   spawn(snapshot) {
-    const worker = new Worker(new URL("./calc-worker.js", import.meta.url), { type: "module" });
+    // The boot message as the worker's name: it boots as soon as its module runs (calc-worker.js).
+    const boot = messages.boot(this.indexURL, this.calcZipURL, { calcSha256: this.calcSha256, snapshot });
+    const worker = new Worker(new URL("./calc-worker.js", import.meta.url),
+      { type: "module", name: JSON.stringify(boot) });
     this.listen(worker);
-    worker.postMessage(messages.boot(this.indexURL, this.calcZipURL,
-      { calcSha256: this.calcSha256, snapshot }));
   }
 
   // A worker booted before this module ran: listen to it, then hear the events it kept, in order

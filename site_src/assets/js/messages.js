@@ -1,6 +1,7 @@
 // Message shapes between a page and the calculator worker (one place, so both sides agree).
 //
-// page -> worker   {type: "boot", indexURL, calcZipURL, calcSha256, snapshot}   once, at start
+// page -> worker   {type: "boot", indexURL, calcZipURL, calcSha256, snapshot}   once, at start,
+//                                                  as the worker's name (JSON) or a message
 //                  {type: "run", id, calculator, inputs, display}
 //                                                  inputs: {name: text or number}; display: the
 //                                                  unit system of shown texts, "na" | "iec" | null
