@@ -376,22 +376,29 @@ def test_a_snapshot_stored_whole_by_an_earlier_worker_is_not_used_and_is_replace
         context.close()
 
 
-# The engine the page uses: was it started from the head (engine-start.js) and adopted?
+# Where the inline engine start (site_src/overrides/partials/engine-start.html) sits among the
+# head's elements (-1: none), and where the first stylesheet does: the start must come first.
+INLINE_START_JS = """() => Array.from(document.head.children).findIndex((element) =>
+  element.tagName === "SCRIPT" && !element.src && element.textContent.includes("fluxbookEngineStart"))"""
+FIRST_STYLESHEET_JS = """() => Array.from(document.head.children).findIndex((element) =>
+  element.matches('link[rel="stylesheet"]'))"""
+# The engine the page uses: was it started from the head (engine-start.html) and adopted?
 STARTED_EARLY_JS = ENGINE_STATE_JS.replace("return engine().state;",
                                            "return Boolean(engine().startedEarly);")
 
 
 def test_a_calculator_page_starts_its_engine_from_the_head(browser, site):
-    """engine-start.js boots the worker before the page's modules run; engine.js adopts it with
-    every message it sent meanwhile, so the page hears it is ready and computes."""
+    """engine-start.html boots the worker before the page's styles load and its modules run;
+    engine.js adopts it with every message it sent meanwhile, so the page hears it is ready
+    and computes."""
     context = new_context(browser)
     try:
         page = context.new_page()
         page.goto(site)  # the home page has no calculator: nothing boots from its head
-        assert page.locator('script[src$="engine-start.js"]').count() == 0
+        assert page.evaluate(INLINE_START_JS) == -1
         assert page.evaluate("() => window.fluxbookEngineStart === undefined")
         page.goto(site + PAGE)
-        assert page.locator('script[src$="engine-start.js"]').count() == 1
+        assert 0 <= page.evaluate(INLINE_START_JS) < page.evaluate(FIRST_STYLESHEET_JS)
         wait_done(page)
         assert page.evaluate(STARTED_EARLY_JS) is True
         assert output(page, "secondary_a") == "208 A"

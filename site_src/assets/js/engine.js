@@ -32,7 +32,7 @@ class Engine {
       BOOT_TIMEOUT_MS);
     this.clearBootTimer = () => clearTimeout(timer);
     this.restoreTimer = null;
-    // Started from the page's head (engine-start.js): take it over with what it has said so far.
+    // Started from the page's head (engine-start.html): take it over with what it has said so far.
     const early = window.fluxbookEngineStart;
     window.fluxbookEngineStart = null;
     if (early && early.worker) this.adopt(early);
