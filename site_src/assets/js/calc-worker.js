@@ -355,9 +355,11 @@ async function restore(loadPyodide, indexURL, saved, reading, store, calcZip) {
     heapWanted = 0;
   }
   await intact;
-  // The snapshot fixed the random state at the moment it was taken: draw a new seed.
-  pyodide.runPython("import random\nrandom.seed()");
-  pyodide.runPython("import calc.api"); // already imported: fails only on a broken restore
+  // In one call (each is compiled first): draw a new seed (the snapshot fixed the random state at
+  // the moment it was taken), import calc.api (already imported: fails only on a broken
+  // restore) and say whether every engine module is in.
+  const complete = pyodide.runPython(`import random, sys\nrandom.seed()\nimport calc.api\n` +
+    `all(name in sys.modules for name in ${JSON.stringify(ENGINE_MODULES)})`);
   // The file system is not in the snapshot. Every engine module was imported before it was
   // taken and runs without its file, but a traceback's source lines need them: calc's files go
   // back after the first result (or a quiet spell), off the path to it. A snapshot without one
@@ -369,8 +371,6 @@ async function restore(loadPyodide, indexURL, saved, reading, store, calcZip) {
       console.warn(`Fluxbook: calc.zip could not be unpacked after the restore (${describe(error)}).`);
     }
   };
-  const complete = pyodide.runPython(
-    `import sys\nall(name in sys.modules for name in ${JSON.stringify(ENGINE_MODULES)})`);
   if (complete) pendingFiles = unpack;
   else await unpack();
   began.then(() => store.endRestore()).catch(() => {});
