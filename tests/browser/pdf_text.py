@@ -9,21 +9,47 @@ general PDF reader (no encryption, object streams or cross-reference streams: Sk
 import re
 import zlib
 
-OBJECT = re.compile(rb"(\d+) 0 obj(.*?)endobj", re.S)
-STREAM = re.compile(rb"stream\r?\n(.*?)\r?\nendstream", re.S)
+OBJECT_START = re.compile(rb"(\d+) 0 obj")
+LENGTH = re.compile(rb"/Length (\d+)(?! \d+ R)")  # a direct length, not a reference
 REFERENCE = rb"(\d+) 0 R"
 
 
+def _data_start(body, keyword):
+    """Where a stream's data begins: after "stream" and its end of line (CR LF or LF)."""
+    start = keyword + len(b"stream")
+    return start + (2 if body[start:start + 2] == b"\r\n" else 1)
+
+
 def _objects(pdf):
-    return {int(number): body for number, body in OBJECT.findall(pdf)}
+    """{number: body}. A stream's data is skipped by its /Length: compressed bytes may hold
+    "endobj" or "endstream" by chance (a regex up to the first one once cut a page short)."""
+    objects, at = {}, 0
+    while match := OBJECT_START.search(pdf, at):
+        start = match.end()
+        end = pdf.find(b"endobj", start)
+        keyword = pdf.find(b"stream", start)
+        length = LENGTH.search(pdf, start, keyword) if 0 <= keyword < end else None
+        if length:
+            end = pdf.find(b"endobj", _data_start(pdf, keyword) + int(length.group(1)))
+        if end < 0:
+            break
+        objects[int(match.group(1))] = pdf[start:end]
+        at = end + len(b"endobj")
+    return objects
 
 
 def _stream(body):
-    match = STREAM.search(body)
-    if not match:
+    keyword = body.find(b"stream")
+    if keyword < 0:
         return b""
-    data = match.group(1)
-    return zlib.decompress(data) if b"/FlateDecode" in body.split(b"stream", 1)[0] else data
+    start = _data_start(body, keyword)
+    length = LENGTH.search(body, 0, keyword)
+    if length:
+        data = body[start:start + int(length.group(1))]
+    else:  # up to the end of line before endstream, which is not part of the data
+        data = body[start:body.rfind(b"endstream")]
+        data = data[:-2] if data.endswith(b"\r\n") else data[:-1] if data.endswith((b"\n", b"\r")) else data
+    return zlib.decompress(data) if b"/FlateDecode" in body[:keyword] else data
 
 
 def _hex_units(text, width):
