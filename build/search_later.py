@@ -55,18 +55,17 @@ def worker_script(theme_worker):
 
 
 def point_config(html):
-    """The page with the theme's config naming the stand-in worker instead of the theme's own."""
+    """The page with the theme's config naming the stand-in worker instead of the theme's own;
+    only the worker's file name changes, the rest of the block stays as the theme wrote it."""
     match = CONFIG_BLOCK.search(html)
     if not match:
         raise SearchLaterError("the page has no theme config block (script#__config)")
-    config = json.loads(match.group(2))
-    url = config.get("search")
+    url = json.loads(match.group(2)).get("search")
     if not isinstance(url, str) or not THEME_WORKER.fullmatch(url.rsplit("/", 1)[-1]):
         raise SearchLaterError(f"the theme config's search worker is {url!r}")
-    config["search"] = url.rsplit("/", 1)[0] + "/" + WORKER_NAME if "/" in url else WORKER_NAME
-    # Escaped as the theme's template escapes it (Jinja's tojson): safe inside a script element.
-    text = json.dumps(config)
-    for char, escape in (("<", "\\u003c"), (">", "\\u003e"), ("&", "\\u0026"), ("'", "\\u0027")):
-        text = text.replace(char, escape)
-    block = match.group(1) + text + match.group(3)
+    quoted = json.dumps(url)  # as it stands in the block: a path holds nothing tojson escapes
+    pointed = json.dumps(url[:len(url) - len(url.rsplit("/", 1)[-1])] + WORKER_NAME)
+    if match.group(2).count(quoted) != 1:
+        raise SearchLaterError(f"the theme config names {url!r} more than once or not as written")
+    block = match.group(1) + match.group(2).replace(quoted, pointed) + match.group(3)
     return html[:match.start()] + block + html[match.end():]

@@ -668,9 +668,7 @@ def _integrate(motor, totals, steadies, switch_current, longest, quasi):
             stop = t * SETTLE_MARGIN
         if stop is not None and t >= stop:
             break
-    k = motor.constant
-    emfs = [k * i * w for i, w in zip(currents, speeds)] if motor.series else \
-        [k * w for w in speeds]  # DCMotor.emf: k (i or 1) ω, in that order
+    emfs = [motor.emf(i, w) for i, w in zip(currents, speeds)]
     steady_w, steady_i = steadies[last]
     return RunUp(time, currents, speeds, emfs, switches, steady_w, steady_i, settled, hung,
                  quasi, steps)

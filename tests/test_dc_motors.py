@@ -358,11 +358,11 @@ def test_heavy_load_makes_the_starter_switch_above_rated():
     assert values(result)["run_up_starter_s"] > 0
 
 
-# ==== back-emf: the hand-written step against a plain transcription ==========================
+# ==== back-emf: the hand-written step against a reference step ===============================
 # run_up writes its equations out by hand for speed (one call a step in the browser). These
 # tests hold that arithmetic to the same equations written plainly from DCMotor's own methods.
 
-def textbook_rk4(m, run_up, sections=()):
+def reference_rk4(m, run_up, sections=()):
     """Classical RK4 from DCMotor.emf, torque, load_at and quasi_current, taken over the run's
     own time steps and starter cuts: (currents, speeds) at the run's sample times."""
     totals = motors.stage_resistances(m.armature_r, sections)
@@ -414,13 +414,13 @@ SERIES_STARTER = motors.starter_sections(250.0, 0.5, 60.0, 20.0, series=True)
     (motor("series", "constant", 20.0), SERIES_STARTER, 30.0, True),
 ], ids=["shunt", "pm-fan", "series-full", "series-reduced", "uncoupled-friction", "ringing",
         "starter-reduced", "starter-full", "series-starter"])
-def test_run_up_step_matches_a_plain_transcription(m, sections, switch, quasi):
+def test_run_up_step_matches_the_reference_step(m, sections, switch, quasi):
     # The same method on the same steps: only the rounding of each step recovered from the
     # sample times (about 1e-13 of a step) separates the two; measured at most 2e-13 of the
     # peak, asserted to 1e-10. A wrong sign or term in the hand-written step is far outside.
     run_up = motors.run_up(m, sections, switch)
     assert run_up.quasi_static == quasi and len(run_up.switch_times) == len(sections)
-    current, speed = textbook_rk4(m, run_up, sections)
+    current, speed = reference_rk4(m, run_up, sections)
     assert np.max(np.abs(np.array(run_up.current) - current)) <= 1e-10 * np.max(np.abs(current))
     assert np.max(np.abs(np.array(run_up.speed) - speed)) <= 1e-10 * np.max(np.abs(speed))
     emf = [m.emf(i, w) for i, w in zip(run_up.current, run_up.speed)]

@@ -148,6 +148,11 @@ class SnapshotStore {
       if (saved) await (await this.opened).delete(this.url);
       return { saved: null, mayMake: false };
     }
+    // Stored by another version of this worker, in another layout: not used; a new one is made.
+    if (saved && saved.headers.get(FORMAT_HEADER) !== pages.FORMAT) {
+      await this.discard().catch(() => {});
+      return { saved: null, mayMake: true };
+    }
     if (restoring) {
       const began = Number(await restoring.text());
       if (Date.now() - began < RESTORE_BUSY_MS) return { saved: null, mayMake: false };
@@ -229,11 +234,6 @@ async function start(options) {
     self.postMessage(messages.snapshot("unavailable", describe(error)));
   }
   if (store) store.pruneOthers().catch(() => {});
-  // Stored by another version of this worker, in another layout: not used; a new one is made.
-  if (plan.saved && plan.saved.headers.get(FORMAT_HEADER) !== pages.FORMAT) {
-    await store.discard().catch(() => {});
-    plan = { saved: null, mayMake: true };
-  }
   // Read while the loader and the runtime load, and the wasm compiles.
   const reading = plan.saved ? plan.saved.arrayBuffer() : null;
   if (reading) reading.catch(() => {}); // restore() reports a failure
@@ -324,8 +324,8 @@ async function restore(loadPyodide, indexURL, saved, reading, store, calcZip) {
     throw new Error("the stored snapshot does not give its size and SHA-256");
   }
   const began = store.beginRestore().catch(() => {});
-  // The stored copy, checked while it is unpacked and Pyodide restores (the digest runs off this
-  // thread, so it is started first); a damaged copy is caught before the engine answers anything.
+  // The stored copy, checked while it is unpacked and Pyodide restores (started first: its result
+  // comes back as a task of its own); a damaged copy is caught before the engine answers anything.
   const intact = reading.then((buffer) => sha256(buffer)).then((actual) => {
     if (actual !== expected) throw new Error("the stored snapshot is damaged (its SHA-256 does not match)");
   });
