@@ -13,7 +13,7 @@ from mkdocs.exceptions import PluginError  # noqa: E402
 from mkdocs.structure.files import File  # noqa: E402
 from mkdocs.utils import get_relative_url  # noqa: E402
 
-from build import embed, forms, home, not_found, package_calc, paths, reference, release_files, search_later, service_worker, slim, team  # noqa: E402,E501
+from build import embed, forms, home, not_found, package_calc, paths, reference, release_files, service_worker, slim, team, theme_later  # noqa: E402,E501
 from build import packed as packed_files  # noqa: E402
 from calc import __version__  # noqa: E402
 
@@ -64,12 +64,6 @@ def on_files(files, config):
     for source, (destination, name) in paths.VENDOR_MODULES.items():
         files.append(File.generated(config, destination, content=vendor_module(source, name)))
     files.append(File.generated(config, paths.SIZES_JS_SITE_PATH, content=forms.sizes_module()))
-    try:  # the theme's search, loaded late on calculator pages (build/search_later.py)
-        theme_worker = search_later.theme_worker_name(file.src_uri for file in files)
-        files.append(File.generated(config, search_later.WORKER_SITE_PATH,
-                                    content=search_later.worker_script(theme_worker)))
-    except search_later.SearchLaterError as error:
-        raise PluginError(str(error)) from None
     return files
 
 
@@ -128,10 +122,10 @@ CANONICAL_LINK = re.compile(r'\s*<link rel="canonical" href="[^"]*">')
 
 
 def on_post_page(output, page, config):
-    if page.meta.get("fluxbook_engine"):  # its search waits for the first result
+    if page.meta.get("fluxbook_engine"):  # the theme's script runs after the first result
         try:
-            output = search_later.point_config(output)
-        except search_later.SearchLaterError as error:
+            output = theme_later.hold_bundle(output)
+        except theme_later.ThemeLaterError as error:
             raise PluginError(f"{page.file.src_uri}: {error}") from None
     # The canonical URL would carry the placeholder site_url; the copy's real address is unknown.
     return slim.collapse_whitespace(CANONICAL_LINK.sub("", output))

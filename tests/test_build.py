@@ -1,6 +1,8 @@
 """The build pipeline: team settings, the embedding block, forms, the zip, the precache, the headers."""
 
+import base64
 import gzip
+import hashlib
 import json
 import re
 import zipfile
@@ -9,7 +11,7 @@ from pathlib import Path
 
 import pytest
 
-from build import embed, forms, package_calc, packed, paths, release_files, search_later, team
+from build import embed, forms, package_calc, packed, paths, release_files, team, theme_later
 from calc import api
 
 ROOT = paths.ROOT
@@ -319,51 +321,61 @@ def test_a_twin_is_the_same_bytes_on_every_build():
     assert packed.twin(data) == packed.twin(data) and gzip.decompress(packed.twin(data)) == data
 
 
-def _config_of(html):
-    return json.loads(search_later.CONFIG_BLOCK.search(html).group(2))
-
-
-def test_calculator_pages_load_the_theme_s_search_late(built_site):
-    """build/search_later.py: a calculator page's theme config names the stand-in worker, which
-    loads the theme's own worker (beside it); other pages keep the theme's worker."""
-    workers = built_site / search_later.THEME_WORKERS
-    (theme,) = [path.name for path in workers.iterdir() if search_later.THEME_WORKER.fullmatch(path.name)]
-    calculator = _config_of((built_site / "calculators/voltage-drop/index.html").read_text(encoding="utf-8"))
-    home_page = _config_of((built_site / "index.html").read_text(encoding="utf-8"))
-    assert calculator["search"] == "../../" + search_later.WORKER_SITE_PATH
-    assert home_page["search"] == search_later.THEME_WORKERS + theme
-    stand_in = (built_site / search_later.WORKER_SITE_PATH).read_text(encoding="utf-8")
-    assert f'const THEME_WORKER = "{theme}";' in stand_in and "__" not in stand_in.split("(() => {")[1]
-    assert f'"{search_later.CHANNEL}"' in stand_in
-    # the page posts on the same channel
-    page_script = (ROOT / "site_src/assets/js/fluxbook.js").read_text(encoding="utf-8")
-    assert f'const SEARCH_CHANNEL = "{search_later.CHANNEL}";' in page_script
+def test_calculator_pages_hold_the_theme_s_script_back(built_site):
+    """build/theme_later.py: a calculator page names the theme's bundle in a data block the
+    browser does not run (theme-later.js runs it); other pages run it as the theme wrote it."""
+    calculator = (built_site / "calculators/voltage-drop/index.html").read_text(encoding="utf-8")
+    home_page = (built_site / "index.html").read_text(encoding="utf-8")
+    held = theme_later.held_bundle(calculator)
+    assert held and held.startswith("../../assets/javascripts/bundle.")
+    assert not theme_later.BUNDLE_SCRIPT.search(calculator)  # nothing runs it from the page
+    assert theme_later.held_bundle(home_page) is None
+    assert f'class="no-js {theme_later.HTML_CLASS}"' in calculator and theme_later.HTML_CLASS not in home_page
+    css = (ROOT / "site_src/assets/css/fluxbook.css").read_text(encoding="utf-8")
+    assert f"html.no-js.{theme_later.HTML_CLASS} .md-search" in css  # its search shows meanwhile
+    (running,) = theme_later.BUNDLE_SCRIPT.findall(home_page)
+    assert running == held.removeprefix("../../")  # the same file, from either page
+    assert (built_site / running).is_file()
     precached = (built_site / "sw.js").read_text(encoding="utf-8")
-    assert search_later.WORKER_SITE_PATH in precached  # works offline
+    assert f'"{running}.gz"' in precached and '"assets/js/theme-later.js.gz"' in precached  # offline
+    module = (ROOT / "site_src/assets/js/theme-later.js").read_text(encoding="utf-8")
+    assert f'script[type="{theme_later.HELD_TYPE}"][{theme_later.DATA_ATTRIBUTE}]' in module
+    assert "dataset.fluxbookTheme" in module and theme_later.DATA_ATTRIBUTE == "data-fluxbook-theme"
+    assert calculator.count(theme_later.SCHEME_SCRIPT) == 1 and theme_later.SCHEME_SCRIPT not in home_page
+    # the CSP lets the scheme script run: its hash is among the inline scripts'
+    digest = base64.b64encode(hashlib.sha256(theme_later.SCHEME_SCRIPT.removeprefix("<script>")
+                              .removesuffix("</script>").encode("utf-8")).digest()).decode("ascii")
+    assert f"'sha256-{digest}'" in release_files.inline_script_hashes(built_site)
 
 
-def test_pointing_the_config_keeps_the_rest_of_it_and_stays_safe_in_a_script():
-    config = {"base": "../..", "search": "../../assets/javascripts/workers/search.0123abcd.min.js",
-              "translations": {"search.result.none": "No </script> & 'matching' <documents>"}}
-    text = json.dumps(config)  # escaped as the theme's template escapes it (Jinja's tojson)
-    for char, escape in (("<", "\\u003c"), (">", "\\u003e"), ("&", "\\u0026"), ("'", "\\u0027")):
-        text = text.replace(char, escape)
-    html = ('<head><script id="__config" type="application/json">' + text +
-            "</script></head><body>pump house</body>")
-    out = search_later.point_config(html)
-    assert out.endswith("</script></head><body>pump house</body>")
-    assert out.count("</script>") == 1 and "<documents>" not in out  # still escaped
-    changed = _config_of(out)
-    assert changed["search"] == "../../assets/javascripts/workers/" + search_later.WORKER_NAME
-    assert changed["translations"] == config["translations"] and changed["base"] == "../.."
+PALETTE = '<script>var palette=__md_get("__palette");if(palette&&palette.color){}</script>'
 
 
-@pytest.mark.parametrize("html, words", [
-    ("<head></head>", "no theme config"),
-    ('<script id="__config" type="application/json">{"search": "x/lunr.js"}</script>', "x/lunr.js"),
+def test_holding_the_script_back_changes_that_element_and_the_html_class_alone():
+    page = ('<!doctype html><html lang="en" class="no-js"><head></head><body><form>palette</form>' + PALETTE +
+            '<p>dairy barn <script> & </p>\n<script src="../../assets/javascripts/bundle.0123abcd.min.js">'
+            '</script>\n<script src="../../assets/js/fluxbook.js" type="module"></script></body></html>')
+    out = theme_later.hold_bundle(page)
+    assert out == page.replace(
+        '<script src="../../assets/javascripts/bundle.0123abcd.min.js"></script>',
+        f'<script type="{theme_later.HELD_TYPE}" {theme_later.DATA_ATTRIBUTE}='
+        '"../../assets/javascripts/bundle.0123abcd.min.js"></script>',
+    ).replace('class="no-js"', f'class="no-js {theme_later.HTML_CLASS}"').replace(
+        PALETTE, PALETTE + theme_later.SCHEME_SCRIPT)
+    assert theme_later.held_bundle(out) == "../../assets/javascripts/bundle.0123abcd.min.js"
+
+
+BUNDLE = '<script src="assets/javascripts/bundle.0123abcd.min.js"></script>'
+
+
+@pytest.mark.parametrize("page, words", [
+    ('<html class="no-js"><body>pump house</body></html>' + PALETTE, "bundle script once in the page, found it 0"),
+    ('<html class="no-js">' + PALETTE + BUNDLE * 2, "bundle script once in the page, found it 2"),
+    ('<html class="no-js">' + PALETTE + '<script src="assets/javascripts/bundle.min.js" defer></script>',
+     "found it 0"),
+    ("<html>" + PALETTE + BUNDLE, 'no-js"> once in the page, found it 0'),
+    ('<html class="no-js">' + BUNDLE, "palette script once in the page, found it 0"),
 ])
-def test_a_theme_that_changed_stops_the_build(html, words):
-    with pytest.raises(search_later.SearchLaterError, match=words):
-        search_later.point_config(html)
-    with pytest.raises(search_later.SearchLaterError, match="found"):
-        search_later.theme_worker_name(["assets/javascripts/bundle.min.js"])
+def test_a_theme_that_changed_stops_the_build(page, words):
+    with pytest.raises(theme_later.ThemeLaterError, match=words):
+        theme_later.hold_bundle(page)

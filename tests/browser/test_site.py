@@ -284,6 +284,8 @@ def test_every_calculator_page_computes_its_defaults(browser, site):
         page.on("worker", lambda worker: workers.append(worker.url))
         page.reload()  # now controlled by the service worker
         wait_done(page)
+        # the theme, whose instant navigation this tour takes, runs after the first result
+        page.wait_for_function("() => typeof window.document$ !== 'undefined'")
         for calculator_id in api.REGISTRY:
             page.locator(f'nav a[href$="calculators/{calculator_id}/"]').first.dispatch_event("click")
             page.wait_for_selector(f'[data-calculator="{calculator_id}"][data-state="done"]')

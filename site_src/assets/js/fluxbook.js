@@ -7,33 +7,15 @@ import { startOffline, onOffline, reportStorage } from "./pwa.js";
 import * as jobs from "./jobs.js"; // save to job, the single-calculation print, the jobs page
 import * as home from "./home.js"; // the home launcher and the recent calculations (issue 12)
 import * as a11y from "./a11y.js"; // scroll regions, Enter computes, chart key numbers (issue 15)
+import * as theme from "./theme-later.js"; // the theme's script, run after the first result (issue 12)
 
 const DEBOUNCE_MS = 120; // issue 12: at most 150 ms from the last keystroke to the run
-// A calculator page's search worker waits for "load" on this channel (build/search_later.py).
-const SEARCH_CHANNEL = "fluxbook-search";
 const OFFLINE_WORDS = {
   checking: "",
   stored: " · stored for offline use",
   unsupported: " · this browser cannot keep it offline",
   insecure: " · to keep it for offline use, open it at an https:// address (or localhost)",
 };
-
-// The theme's search index is built once the first result is out (or the search box is used),
-// not while the engine starts: they would share the phone's cores.
-let searchReleased = false;
-
-function releaseSearch() {
-  if (searchReleased || typeof BroadcastChannel !== "function") return;
-  searchReleased = true;
-  const channel = new BroadcastChannel(SEARCH_CHANNEL);
-  channel.postMessage("load");
-  channel.close();
-}
-
-document.addEventListener("focusin", (event) => {
-  const target = event.target;
-  if (target instanceof Element && target.matches('[data-md-component="search-query"]')) releaseSearch();
-});
 
 function setState(root, state) {
   root.dataset.state = state;
@@ -151,8 +133,8 @@ function wire(root, roots) {
   running.ready.then(() => {
     showEngine(root, running.state);
     if (root.dataset.state === "starting") setState(root, "ready");
-    compute(root, roots).finally(releaseSearch);
-  }, releaseSearch);
+    compute(root, roots).finally(theme.loadTheme);
+  }, theme.loadTheme);
 }
 
 // One stage listener for the whole visit (it outlives instant navigation): it shows the engine's
@@ -199,5 +181,15 @@ try { localStorage.setItem("fluxbook-root", new URL("../../", import.meta.url).h
 if (window.document$ && typeof window.document$.subscribe === "function") {
   window.document$.subscribe(initPage);
 } else {
+  // No theme yet (a calculator page runs it after its first result: theme-later.js), or none.
   initPage();
+  theme.whenLoaded((document$) => {
+    if (!document$ || typeof document$.subscribe !== "function") return;
+    let replay = true; // the theme's stream first gives this page again: it is set up already
+    document$.subscribe(() => {
+      if (replay) replay = false;
+      else initPage();
+    });
+  });
+  theme.wireTriggers();
 }
