@@ -16,7 +16,7 @@
 // Other pages run the theme's script as the theme wrote it.
 
 const HELD = 'script[type="text/x-fluxbook-later"][data-fluxbook-theme]'; // build/theme_later.py
-const LATEST_MS = 3000; // the search and the palette are hidden until it runs
+const LATEST_MS = 3000; // its palette toggle and its search results wait for it
 // Touched or focused first, these run the theme at once: a tap's pointerdown comes about 0.1 s
 // before its click, by when the theme takes a link in its navigation.
 const THEME_PARTS = ".md-header, .md-tabs, .md-sidebar, .md-footer";
