@@ -4,9 +4,9 @@ A warm offline visit to a calculator page spends its first half-second restoring
 on a phone of few cores. The theme's bundle (mkdocs-material) runs meanwhile on the page's main
 thread, 40-70 ms of it measured in a Chromium trace of such a reload here (2 cores), and starts
 its search worker, which builds the lunr index in another 0.1-0.25 s. None of it is needed for a
-result, and the theme's drawer and links work without it. Interleaved offline reloads of a
-calculator page (24 a side): the first result 80 ms sooner (median) with no bundle at all, and
-46-76 ms sooner with it run after the first result as here.
+result, and the theme's drawer and links work without it. Paired offline reloads of a
+calculator page (24 pairs): the first result 80 ms sooner (median) with no bundle at all, and
+33-48 ms sooner (paired median, three builds) with it run after the first result as here.
 
 On a page with a calculator (page.meta["fluxbook_engine"]) the theme's script element becomes a
 data block naming it (HELD_TYPE, its URL in DATA_ATTRIBUTE); site_src/assets/js/theme-later.js

@@ -27,7 +27,7 @@ let loading = null;
 const waiting = [];
 
 // Whether this page holds the theme's script back (and it has not run yet).
-export function held() {
+function held() {
   return !loading && Boolean(document.querySelector(HELD));
 }
 
@@ -45,9 +45,6 @@ export function loadTheme() {
     script.addEventListener("load", () => {
       // The theme builds its page from DOMContentLoaded, which has fired already.
       document.dispatchEvent(new Event("DOMContentLoaded"));
-      const search = document.getElementById(SEARCH_TOGGLE);
-      const query = document.querySelector(SEARCH_QUERY);
-      if (search && search.checked && query) query.focus();
       for (const callback of waiting.splice(0)) callback(window.document$);
       resolve(true);
     }, { once: true });
