@@ -3,11 +3,12 @@
 //
 // Quick start: the first full boot on a device takes a memory snapshot of the engine right after
 // importing calc (before any calculation) and, once the first result is out, stores it in Cache
-// Storage without its pages of zeros (snapshot-pages.js), with its SHA-256, keyed by Pyodide's
-// folder and calc.zip's SHA-256. A later visit restores from it instead of booting. It is not
-// gzipped: the browser reads it off this thread while Pyodide's scripts load and its wasm
-// compiles, where un-gzipping took about 0.2 s of this thread first; a phone has the room. The
-// checksum, checked while Pyodide restores, stands in for gzip's check of the bytes. Any failure
+// Storage without its pages of zeros and those the runtime's wasm writes itself when instantiated
+// (snapshot-pages.js), with its checksum, keyed by Pyodide's folder and calc.zip's SHA-256. A
+// later visit restores from it instead of booting. It is not gzipped: its pages are written into
+// place as they are read, while Pyodide's scripts load and its wasm compiles, where un-gzipping
+// took about 0.2 s of this thread first; a phone has the room. The checksum (snapshot-pages.js's
+// sum64), checked before Pyodide is given the snapshot, stands in for gzip's check. Any failure
 // to restore deletes it, marks this release's snapshot as failed (none is made again until a new
 // release) and boots in full.
 import * as messages from "./messages.js";
@@ -16,7 +17,7 @@ import * as pages from "./snapshot-pages.js";
 const CALC_DIR = "/home/pyodide/fluxbook";
 const SNAPSHOT_CACHE = "fluxbook-engine-snapshot";
 const SNAPSHOT_IDLE_MS = 3000; // no calculation this long after ready: save the snapshot anyway
-const CHECKSUM_HEADER = "X-Snapshot-SHA256";
+const CHECKSUM_HEADER = "X-Snapshot-Sum64"; // pages.sum64 of the stored bytes
 const SIZE_HEADER = "X-Snapshot-Bytes";
 const RUNTIME_HEADER = "X-Snapshot-Pyodide"; // the version of Pyodide that made it
 const FORMAT_HEADER = "X-Snapshot-Format"; // pages.FORMAT: how it is stored
@@ -35,7 +36,7 @@ let bootFailed;
 const booted = new Promise((resolve, reject) => { bootDone = resolve; bootFailed = reject; });
 booted.catch(() => {}); // each run reports the failure itself
 let fatal = null; // set when the runtime can no longer be used
-let pendingSnapshot = null; // {bytes, store}: taken at boot, saved after the first result
+let pendingSnapshot = null; // {bytes, base, store, pyodideVersion}: taken at boot, saved after the first result
 let saveTimer = null;
 let pendingFiles = null; // after a restore: puts calc's files back, once, after the first result
 
@@ -67,6 +68,32 @@ self.fetch = async (request, init) => {
   }
 };
 
+// Pyodide wraps each JavaScript function it puts in the wasm table in a tiny module of its own
+// (Emscripten's convertJsFunctionToWasm), compiled anew for each: about 260 on every start and
+// restore, of a few dozen signatures. Equal bytes compile to an equal module, so a small
+// module's compiled copy is kept by its bytes and each signature compiles once. Instances, which
+// hold the functions, are still made one for each.
+const TINY_MODULE_BYTES = 256;
+if (self.WebAssembly && typeof WebAssembly.Module === "function" && typeof Proxy === "function") {
+  const compiledTiny = new Map();
+  WebAssembly.Module = new Proxy(WebAssembly.Module, {
+    construct(target, args, newTarget) {
+      const bytes = args[0];
+      if (newTarget !== WebAssembly.Module || !(bytes instanceof Uint8Array) ||
+          bytes.length > TINY_MODULE_BYTES) {
+        return Reflect.construct(target, args, newTarget);
+      }
+      const key = String.fromCharCode.apply(null, bytes);
+      let module = compiledTiny.get(key);
+      if (!module) {
+        module = Reflect.construct(target, args, newTarget);
+        compiledTiny.set(key, module);
+      }
+      return module;
+    },
+  });
+}
+
 // Pyodide 314.0.7 restores a snapshot into the wasm memory's compiled size (30 MiB) and throws
 // "RangeError: offset is out of bounds" once the snapshot's heap grew past it (pyodide issue
 // 6254: prepareSnapshot sets INITIAL_MEMORY, which the module never reads). While a restore is
@@ -82,7 +109,10 @@ self.fetch = async (request, init) => {
 // it is handed an array of the stored size at once and the bytes are copied in when read;
 // instantiation waits for that (`snapshotFilled`), and Pyodide reads the array only after it.
 let heapWanted = 0;
-let snapshotFilled = null;
+let snapshotFilled = null; // a promise of {target, plan}: the array Pyodide was handed, unpackInto's plan
+let captureBase = false; // a boot that will take a snapshot: keep its memory as instantiated
+let capturedBase = null; // that memory below the heap (Uint8Array), for pages.pack
+let abortRestore = null; // during a restore: ends it with an error
 let compiled = null; // Promise of pyodide.asm.wasm's WebAssembly.Module, or of null
 let compiledURL = "";
 const instantiateModule = self.WebAssembly && WebAssembly.instantiate;
@@ -94,7 +124,7 @@ for (const name of ["instantiateStreaming", "instantiate"]) {
     // fails it, and that abandoned instance never runs (restore() falls back and says why).
     const waitFor = name === "instantiateStreaming" ? snapshotFilled : null;
     if (waitFor) snapshotFilled = null;
-    if (waitFor) await waitFor;
+    const unpacked = waitFor ? await waitFor : null;
     const module = name === "instantiateStreaming" && compiled ? await compiled : null;
     let result;
     if (module) {
@@ -105,11 +135,35 @@ for (const name of ["instantiateStreaming", "instantiate"]) {
     }
     const instance = result instanceof WebAssembly.Instance ? result : result && result.instance;
     const memory = instance && instance.exports && instance.exports.memory;
+    if (memory instanceof WebAssembly.Memory) {
+      // Pages the snapshot shares with the memory as instantiated were not stored: put back here,
+      // before Pyodide copies the snapshot in (a mismatch fails the restore, which falls back).
+      // Pyodide only logs a failed instantiation and waits: the restore is ended here instead.
+      try {
+        if (unpacked) pages.fillBase(unpacked.target, new Uint8Array(memory.buffer), unpacked.plan);
+      } catch (error) {
+        if (abortRestore) abortRestore(error);
+        throw error;
+      }
+      if (captureBase) {
+        captureBase = false;
+        capturedBase = memoryBelowHeap(instance, memory);
+      }
+    }
     if (heapWanted && memory instanceof WebAssembly.Memory && memory.buffer.byteLength < heapWanted) {
       memory.grow(Math.ceil((heapWanted - memory.buffer.byteLength) / 65536));
     }
     return result;
   };
+}
+
+// The memory as instantiated, below the heap (`__heap_base`): the wasm's data segments, as
+// Python will find them; null if the runtime does not say where its heap begins.
+function memoryBelowHeap(instance, memory) {
+  const heapBase = instance.exports.__heap_base;
+  const end = heapBase instanceof WebAssembly.Global ? Number(heapBase.value) : 0;
+  if (!(end > 0 && end <= memory.buffer.byteLength)) return null;
+  return new Uint8Array(memory.buffer, 0, end).slice();
 }
 
 // The snapshot on this device for one release, in Cache Storage under URLs of this copy of the
@@ -119,7 +173,7 @@ for (const name of ["instantiateStreaming", "instantiate"]) {
 // (build/paths.py), and the version that made the snapshot is checked once the loader is in.
 class SnapshotStore {
   static open({ indexURL, calcZipURL, calcSha256, snapshot }) {
-    const supported = self.caches && self.crypto && self.crypto.subtle;
+    const supported = Boolean(self.caches);
     if (!calcSha256 || snapshot === "off" || !supported) return null;
     const runtime = new URL(indexURL).pathname.split("/").filter(Boolean).pop() || "pyodide";
     return new SnapshotStore(new URL("engine-snapshot/", calcZipURL).href,
@@ -183,10 +237,11 @@ class SnapshotStore {
     await cache.delete(this.restoringURL);
   }
 
-  // bytes: the snapshot; stored without its pages of zeros. Its size as stored, in bytes.
-  async save(bytes, pyodideVersion) {
-    const stored = pages.pack(bytes);
-    const checksum = await sha256(stored);
+  // bytes: the snapshot; base: the memory as instantiated (or null). Stored without its pages of
+  // zeros and those equal to base. Its size as stored, in bytes.
+  async save(bytes, base, pyodideVersion) {
+    const stored = pages.pack(bytes, base, heapAt(bytes));
+    const checksum = pages.sum64(stored);
     const cache = await this.opened;
     await cache.put(this.url, new Response(stored, { headers: {
       "Content-Type": "application/octet-stream", [CHECKSUM_HEADER]: checksum,
@@ -208,35 +263,50 @@ class SnapshotStore {
 async function start(options) {
   const { indexURL, calcZipURL } = options;
   self.postMessage(messages.stage("runtime"));
-  // All at once: the loader, the runtime's JavaScript (loadPyodide imports the same module
-  // later and finds it loaded) and its wasm, while the snapshot is looked up and read.
-  const loader = import(new URL("pyodide.mjs", indexURL).href);
-  const runtimeScript = import(new URL("pyodide.asm.mjs", indexURL).href);
-  runtimeScript.catch(() => {}); // loadPyodide imports it again and reports a failure
-  const calcZip = fetchCalcZip(calcZipURL);
-  calcZip.catch(() => {}); // awaited below; a failure there is reported there
-  prefetch(indexURL);
-  compiled = compileRuntime(indexURL); // a restore and a full start both take it
-
+  // The snapshot is looked up first: its read is the longest of what a restore waits for, and
+  // the browser's storage answers in the order it was asked.
   let store = null;
-  let plan = { saved: null, mayMake: false };
+  let looking = null;
   try {
     store = SnapshotStore.open(options);
-    if (store && options.snapshot === "discard") {
-      await store.markFailed("a restore from it did not finish in time");
-      self.postMessage(messages.snapshot("failed", "a restore from it did not finish in time"));
-    } else if (store) {
-      plan = await store.look();
-      if (plan.failed) self.postMessage(messages.snapshot("failed", plan.failed));
-    }
+    if (store && options.snapshot !== "discard") looking = store.look();
   } catch (error) { // Cache Storage refused (private mode, storage off): no snapshot this visit
     store = null;
     self.postMessage(messages.snapshot("unavailable", describe(error)));
   }
+  if (looking) looking.catch(() => {}); // awaited below
+  // Then all at once: the loader, the runtime's JavaScript (loadPyodide imports the same module
+  // later and finds it loaded) and its wasm. calc.zip waits until the look says whether a
+  // snapshot is there: a restore needs its files only after the first result.
+  const loader = import(new URL("pyodide.mjs", indexURL).href);
+  const runtimeScript = import(new URL("pyodide.asm.mjs", indexURL).href);
+  runtimeScript.catch(() => {}); // loadPyodide imports it again and reports a failure
+  prefetch(indexURL);
+  compiled = compileRuntime(indexURL); // a restore and a full start both take it
+  let calcZip = null;
+  const calcZipBytes = () => {
+    calcZip ||= fetchCalcZip(calcZipURL);
+    return calcZip;
+  };
+
+  let plan = { saved: null, mayMake: false };
+  try {
+    if (store && options.snapshot === "discard") {
+      await store.markFailed("a restore from it did not finish in time");
+      self.postMessage(messages.snapshot("failed", "a restore from it did not finish in time"));
+    } else if (looking) {
+      plan = await looking;
+      if (plan.failed) self.postMessage(messages.snapshot("failed", plan.failed));
+    }
+  } catch (error) { // Cache Storage refused the look: no snapshot this visit
+    store = null;
+    plan = { saved: null, mayMake: false };
+    self.postMessage(messages.snapshot("unavailable", describe(error)));
+  }
+  if (!plan.saved) calcZipBytes().catch(() => {}); // a full start: awaited below, reported there
   if (store) store.pruneOthers().catch(() => {});
   // Read while the loader and the runtime load, and the wasm compiles.
-  const reading = plan.saved ? plan.saved.arrayBuffer() : null;
-  if (reading) reading.catch(() => {}); // restore() reports a failure
+  const reading = plan.saved ? readSnapshot(plan.saved) : null;
 
   const { loadPyodide, version: pyodideVersion } = await loader;
   if (plan.saved && plan.saved.headers.get(RUNTIME_HEADER) !== pyodideVersion) {
@@ -246,7 +316,7 @@ async function start(options) {
   if (plan.saved) {
     self.postMessage(messages.stage("restore"));
     try {
-      const pyodide = await restore(loadPyodide, indexURL, plan.saved, reading, store, calcZip);
+      const pyodide = await restore(loadPyodide, indexURL, reading, store, calcZipBytes);
       ready(pyodide, "snapshot");
       putFilesBack(SNAPSHOT_IDLE_MS);
       return;
@@ -260,20 +330,23 @@ async function start(options) {
   }
 
   const makeSnapshot = Boolean(store && plan.mayMake);
+  captureBase = makeSnapshot;
   const pyodide = await loadPyodide({ indexURL, fullStdLib: false, _makeSnapshot: makeSnapshot });
   self.postMessage(messages.stage("package"));
-  pyodide.unpackArchive(await calcZip, "zip", { extractDir: CALC_DIR });
+  pyodide.unpackArchive(await calcZipBytes(), "zip", { extractDir: CALC_DIR });
   self.postMessage(messages.stage("import"));
   pyodide.runPython(`import sys\nif ${JSON.stringify(CALC_DIR)} not in sys.path: sys.path.insert(0, ${JSON.stringify(CALC_DIR)})\nimport ${ENGINE_MODULES.join(", ")}`);
   if (makeSnapshot) {
     // Before any calculation and before JavaScript holds any Python object: the smallest heap.
     try {
       pyodide.runPython("import gc\ngc.collect()");
-      pendingSnapshot = { bytes: pyodide.makeMemorySnapshot(), store, pyodideVersion };
+      pendingSnapshot = { bytes: pyodide.makeMemorySnapshot(), base: capturedBase, store, pyodideVersion };
     } catch (error) {
       self.postMessage(messages.snapshot("unavailable", describe(error)));
     }
   }
+  captureBase = false;
+  capturedBase = null;
   ready(pyodide, "normal");
   scheduleSave(SNAPSHOT_IDLE_MS);
 }
@@ -316,26 +389,47 @@ function ready(pyodide, start) {
   self.postMessage(messages.stage("ready", version, start));
 }
 
-// saved: the stored snapshot's entry; reading: its bytes (a promise of an ArrayBuffer).
-async function restore(loadPyodide, indexURL, saved, reading, store, calcZip) {
+// The stored snapshot written into an array of the snapshot's size as its bytes are read:
+// {snapshot, unpacked}, unpacked a promise of pages.Unpacker's plan once every stored page is in
+// and the checksum matches (snapshot null if the entry does not say its size and checksum).
+function readSnapshot(saved) {
   const expected = saved.headers.get(CHECKSUM_HEADER);
   const size = Number(saved.headers.get(SIZE_HEADER));
-  if (!expected || !Number.isSafeInteger(size) || size < 8) {
-    throw new Error("the stored snapshot does not give its size and SHA-256");
+  let unpacked;
+  let snapshot = null;
+  if (!expected || !Number.isSafeInteger(size) || size < 8 || !saved.body) {
+    unpacked = Promise.reject(new Error("the stored snapshot does not give its size and checksum"));
+  } else {
+    snapshot = new Uint8Array(size); // zeros, but for the stored pages written in as they come
+    unpacked = (async () => {
+      const unpacker = new pages.Unpacker(snapshot);
+      const reader = saved.body.getReader();
+      for (let chunk = await reader.read(); !chunk.done; chunk = await reader.read()) {
+        unpacker.push(chunk.value);
+      }
+      const plan = unpacker.finish();
+      if (unpacker.checksum() !== expected) {
+        throw new Error("the stored snapshot is damaged (its checksum does not match)");
+      }
+      return plan;
+    })();
   }
+  unpacked.catch(() => {}); // restore() reports a failure
+  return { snapshot, unpacked };
+}
+
+// reading: readSnapshot's answer; calcZip: a promise of calc.zip's bytes, asked for when called.
+async function restore(loadPyodide, indexURL, reading, store, calcZip) {
+  const { snapshot } = reading;
+  if (!snapshot) await reading.unpacked; // throws why
   const began = store.beginRestore().catch(() => {});
-  // The stored copy, checked while it is unpacked and Pyodide restores (started first: its result
-  // comes back as a task of its own); a damaged copy is caught before the engine answers anything.
-  const intact = reading.then((buffer) => sha256(buffer)).then((actual) => {
-    if (actual !== expected) throw new Error("the stored snapshot is damaged (its SHA-256 does not match)");
+  const filled = reading.unpacked.then((plan) => {
+    heapWanted = snapshot.length - heapAt(snapshot);
+    if (plan.runs.length && plan.baseAt !== heapAt(snapshot)) {
+      throw new Error("the stored snapshot's base pages are not placed where its heap begins");
+    }
+    return { target: snapshot, plan };
   });
-  const snapshot = new Uint8Array(size); // zeros, but for the stored pages written in below
-  const filled = reading.then((buffer) => {
-    pages.unpackInto(new Uint8Array(buffer), snapshot);
-    // The snapshot header's second word is its own length; the rest is the wasm heap.
-    heapWanted = size - new DataView(snapshot.buffer).getUint32(4, true);
-  });
-  intact.catch(() => {}); // awaited below
   // A failed read ends the restore at once (Pyodide, whose instantiation it fails, would wait).
   const readFailed = filled.then(() => new Promise(() => {}));
   let readFailure = null;
@@ -347,14 +441,15 @@ async function restore(loadPyodide, indexURL, saved, reading, store, calcZip) {
     snapshotFilled = filled;
     resolve(snapshot);
   } };
+  const aborted = new Promise((resolve, reject) => { abortRestore = reject; });
   let pyodide;
   try {
     pyodide = await Promise.race([
-      loadPyodide({ indexURL, fullStdLib: false, _loadSnapshot: offered }), readFailed]);
+      loadPyodide({ indexURL, fullStdLib: false, _loadSnapshot: offered }), readFailed, aborted]);
   } finally {
     heapWanted = 0;
+    abortRestore = null;
   }
-  await intact;
   // In one call (each is compiled first): draw a new seed (the snapshot fixed the random state at
   // the moment it was taken), import calc.api (already imported: fails only on a broken
   // restore) and say whether every engine module is in.
@@ -366,7 +461,7 @@ async function restore(loadPyodide, indexURL, saved, reading, store, calcZip) {
   // of the modules (made by another version of this worker) needs them now.
   const unpack = async () => {
     try {
-      pyodide.unpackArchive(await calcZip, "zip", { extractDir: CALC_DIR });
+      pyodide.unpackArchive(await calcZip(), "zip", { extractDir: CALC_DIR });
     } catch (error) {
       console.warn(`Fluxbook: calc.zip could not be unpacked after the restore (${describe(error)}).`);
     }
@@ -381,9 +476,9 @@ function putFilesBack(delay) {
   if (pendingFiles) setTimeout(() => { const put = pendingFiles; pendingFiles = null; if (put) put(); }, delay);
 }
 
-async function sha256(bytes) {
-  const digest = new Uint8Array(await crypto.subtle.digest("SHA-256", bytes));
-  return Array.from(digest, (byte) => byte.toString(16).padStart(2, "0")).join("");
+// Where the wasm heap begins in a snapshot: its header's second word, the header's own length.
+function heapAt(snapshot) {
+  return new DataView(snapshot.buffer, snapshot.byteOffset, snapshot.byteLength).getUint32(4, true);
 }
 
 // The snapshot is saved after the first result (or after a quiet spell), never before a result.
@@ -399,7 +494,7 @@ async function saveSnapshot() {
   if (!taken) return;
   try {
     const began = performance.now();
-    const stored = await taken.store.save(taken.bytes, taken.pyodideVersion);
+    const stored = await taken.store.save(taken.bytes, taken.base, taken.pyodideVersion);
     self.postMessage(messages.snapshot("saved", `${(taken.bytes.length / 1e6).toFixed(1)} MB, ` +
       `${(stored / 1e6).toFixed(1)} MB stored, in ${Math.round(performance.now() - began)} ms`));
   } catch (error) { // quota exceeded, storage cleared meanwhile: a full start next time
