@@ -50,7 +50,6 @@ import statistics
 import sys
 import tempfile
 import time
-import time
 from pathlib import Path
 
 ROOT = Path(__file__).resolve().parent.parent

@@ -109,7 +109,7 @@ if (self.WebAssembly && typeof WebAssembly.Module === "function" && typeof Proxy
 // it is handed an array of the stored size at once and the bytes are copied in when read;
 // instantiation waits for that (`snapshotFilled`), and Pyodide reads the array only after it.
 let heapWanted = 0;
-let snapshotFilled = null; // a promise of {target, plan}: the array Pyodide was handed, unpackInto's plan
+let snapshotFilled = null; // a promise of {target, plan}: the array Pyodide was handed, the Unpacker's plan
 let captureBase = false; // a boot that will take a snapshot: keep its memory as instantiated
 let capturedBase = null; // that memory below the heap (Uint8Array), for pages.pack
 let abortRestore = null; // during a restore: ends it with an error

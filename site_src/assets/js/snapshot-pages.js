@@ -203,13 +203,6 @@ export function sizeOf(stored) {
   return readHead(stored.subarray(0, length), null).size;
 }
 
-// A whole stored copy written into target at once: Unpacker's plan (and its checks).
-export function unpackInto(stored, target) {
-  const unpacker = new Unpacker(target);
-  unpacker.push(stored);
-  return unpacker.finish();
-}
-
 // Copies the base pages (Unpacker's plan) from memory, the runtime's memory as it stands when
 // instantiated, into target, the snapshot unpacked; throws if they are not the bytes the
 // snapshot was stored against.
